@@ -1,0 +1,10 @@
+/**
+ * `npm run bench`: every benchmark in one process, printed as Markdown tables
+ * with ratios measured in the same run.
+ */
+import { runCoreBench } from './core.js'
+import { machine } from './measure.js'
+
+const only = process.argv[2]
+console.log(`linkwright benchmarks — ${machine()}`)
+if (!only || only === 'core') await runCoreBench()

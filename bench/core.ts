@@ -50,7 +50,7 @@ export async function runCoreBench(): Promise<void> {
   const fourBarSweep = await median(() => fb.update(full, { speed: omega }), 5)
 
   // What a general calculation tool gives: compiled expressions, evaluated per point.
-  const math = create(all)
+  const math = create(all!)
   const expressions = [
     'a*cos(t) + sqrt(b^2 - (a*sin(t) - h)^2)',
     '(-a*sin(t) - (a*sin(t) - h)*a*cos(t)/sqrt(b^2 - (a*sin(t) - h)^2)) * w',

@@ -5,7 +5,7 @@
 
 import { LinkageError } from './errors.js'
 import { FOUR_BAR_STATE, H3, H3P, H4, H4P, THETA3, THETA4, solveFourBar, type FourBarLinkage } from './four-bar.js'
-import { includedAngle } from './math.js'
+import { includedAngle, wrapTurn } from './math.js'
 import type { CrankMotion } from './slider-crank-sweep.js'
 import type { AngleRange } from './types.js'
 
@@ -56,13 +56,32 @@ export class FourBarSweep {
 
   /** Recompute every array in place for an input range and input motion. Returns this. */
   update(range: AngleRange, motion: CrankMotion): this {
+    const { count, inputAngle } = this
+    const step = (range.end - range.start) / (count - 1)
+    // Angles first, the last one exactly at the end of the range.
+    for (let i = 0; i < count; i++) inputAngle[i] = i === count - 1 ? range.end : range.start + i * step
+    const origin = this.linkage.rotation === 1 ? range.start : range.end
+    return this.compute(motion, origin, false)
+  }
+
+  /**
+   * Recompute every array in place at given input angles (as many as `count`).
+   * Time is counted from the input passing `timeOrigin`, wrapped to one turn.
+   */
+  updateAt(angles: ArrayLike<number>, motion: CrankMotion, timeOrigin: number): this {
+    if (angles.length !== this.count) {
+      throw new LinkageError('invalid-number', `Expected ${this.count} input angles, got ${angles.length}`)
+    }
+    for (let i = 0; i < this.count; i++) this.inputAngle[i] = angles[i]!
+    return this.compute(motion, timeOrigin, true)
+  }
+
+  private compute(motion: CrankMotion, origin: number, wrap: boolean): this {
     const { linkage, count, state } = this
     const { input, coupler, output, groundX, groundY, circuitSign } = linkage
     const omega = linkage.rotation * motion.speed
     const alpha = linkage.rotation * (motion.angularAcceleration ?? 0)
     const omega2 = omega * omega
-    const step = (range.end - range.start) / (count - 1)
-    const origin = linkage.rotation === 1 ? range.start : range.end
     const hasPoint = linkage.couplerPoint !== null
     const pointDistance = linkage.couplerPoint?.distance ?? 0
     const pointAngle = linkage.couplerPoint?.angle ?? 0
@@ -80,13 +99,13 @@ export class FourBarSweep {
     const couplerPointSpeed = this.couplerPointSpeed
     // One input angle per step: close the loop, then scale the coefficients by ω and α.
     for (let i = 0; i < count; i++) {
-      const theta2 = i === count - 1 ? range.end : range.start + i * step
+      const theta2 = inputAngle[i]!
       solveFourBar(input, coupler, output, groundX, groundY, circuitSign, theta2, state)
       const theta3 = state[THETA3]!
       const h3 = state[H3]!
       const h4 = state[H4]!
-      inputAngle[i] = theta2
-      time[i] = omega === 0 ? Number.NaN : (theta2 - origin) / omega
+      const travel = theta2 - origin
+      time[i] = omega === 0 ? Number.NaN : (wrap ? wrapTurn(linkage.rotation * travel) * linkage.rotation : travel) / omega
       couplerAngle[i] = theta3
       outputAngle[i] = state[THETA4]!
       couplerAngularVelocity[i] = h3 * omega

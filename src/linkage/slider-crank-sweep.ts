@@ -4,6 +4,7 @@
  */
 
 import { LinkageError } from './errors.js'
+import { wrapTurn } from './math.js'
 import {
   DDPHI,
   DDX,
@@ -70,13 +71,30 @@ export class SliderCrankSweep {
 
   /** Recompute every array in place for a crank-angle range and crank motion. Returns this. */
   update(range: AngleRange, motion: CrankMotion): this {
+    const { count, crankAngle } = this
+    const step = (range.end - range.start) / (count - 1)
+    // Angles first, the last one exactly at the end of the range.
+    for (let i = 0; i < count; i++) crankAngle[i] = i === count - 1 ? range.end : range.start + i * step
+    const origin = this.linkage.rotation === 1 ? range.start : range.end
+    return this.compute(motion, origin, false)
+  }
+
+  /**
+   * Recompute every array in place at given crank angles (as many as `count`).
+   * Time is counted from the crank passing `timeOrigin`, wrapped to one turn.
+   */
+  updateAt(angles: ArrayLike<number>, motion: CrankMotion, timeOrigin: number): this {
+    if (angles.length !== this.count) {
+      throw new LinkageError('invalid-number', `Expected ${this.count} crank angles, got ${angles.length}`)
+    }
+    for (let i = 0; i < this.count; i++) this.crankAngle[i] = angles[i]!
+    return this.compute(motion, timeOrigin, true)
+  }
+
+  private compute(motion: CrankMotion, origin: number, wrap: boolean): this {
     const { linkage, count, state } = this
     const omega = linkage.rotation * motion.speed
     const alpha = linkage.rotation * (motion.angularAcceleration ?? 0)
-    const start = range.start
-    const step = (range.end - range.start) / (count - 1)
-    // Time runs from whichever end the crank leaves first.
-    const origin = linkage.rotation === 1 ? range.start : range.end
     const crankAngle = this.crankAngle
     const time = this.time
     const position = this.position
@@ -89,12 +107,12 @@ export class SliderCrankSweep {
     const omega2 = omega * omega
     // One crank angle per step: state by closed form, then scale by ω and α.
     for (let i = 0; i < count; i++) {
-      const theta = i === count - 1 ? range.end : start + i * step
+      const theta = crankAngle[i]!
       sliderCrankState(linkage, theta, state)
       const dx = state[DX]!
       const dphi = state[DPHI]!
-      crankAngle[i] = theta
-      time[i] = omega === 0 ? Number.NaN : (theta - origin) / omega
+      const travel = theta - origin
+      time[i] = omega === 0 ? Number.NaN : (wrap ? wrapTurn(linkage.rotation * travel) * linkage.rotation : travel) / omega
       position[i] = state[POSITION]!
       velocity[i] = dx * omega
       acceleration[i] = state[DDX]! * omega2 + dx * alpha

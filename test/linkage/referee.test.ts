@@ -8,7 +8,7 @@ import { describe, it } from 'vitest'
 import { SLIDER_CRANK_STATE, DX, DDX, POSITION, DPHI, sliderCrank, sliderCrankState } from '../../src/linkage/index.js'
 import { expectClose } from '../helpers/close.js'
 
-const math = create(all)
+const math = create(all!)
 
 describe('symbolic derivatives (mathjs) against the core', () => {
   const position = math.parse('a * cos(t) + s * sqrt(b^2 - (a * sin(t) - h)^2)')

@@ -1,0 +1,19 @@
+/**
+ * The block kinds, by the name written in a fence's info string. Adding a kind
+ * means adding its file and one line here (see DEVELOPERS.md).
+ */
+import { assumptionsKind } from './assumptions.js'
+import { checksKind } from './checks.js'
+import { eccentricKind } from './eccentric.js'
+import { fourBarKind } from './four-bar.js'
+import { givenKind } from './given.js'
+import type { BlockKind } from './kind.js'
+import { sliderCrankKind } from './slider-crank.js'
+import { tableKind } from './table.js'
+
+/** Every block kind by name. */
+export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
+  [givenKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, assumptionsKind].map((k) => [k.name, k]),
+)
+
+export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

@@ -1,0 +1,38 @@
+/**
+ * Inputs every linkage kind shares (crank motion and sense of rotation), and the
+ * step from a core error to a positioned message.
+ */
+import { LinkageError } from '../../linkage/index.js'
+import { messages } from '../messages.js'
+import { reportError } from '../report.js'
+import type { CalcBlock } from '../types.js'
+import type { EvaluationContext } from './kind.js'
+import type { InputSpec } from './inputs.js'
+
+/** Speed, angular acceleration and sense of rotation of the driving crank. */
+export const motionInputs: readonly InputSpec[] = [
+  { name: 'speed', label: 'crank speed', symbol: 'n', kind: 'rotational-speed', required: true },
+  { name: 'angular_acceleration', label: 'crank angular acceleration', symbol: '\\alpha', kind: 'angular-acceleration', default: '0 rad/s^2' },
+  { name: 'rotation', label: 'sense of crank rotation', symbol: null, kind: 'choice', choices: ['ccw', 'cw'], default: 'ccw' },
+]
+
+/** Sense of rotation as the core's sign. */
+export function rotationSign(word: string | undefined): 1 | -1 {
+  return word === 'cw' ? -1 : 1
+}
+
+/**
+ * Run a core call; a LinkageError becomes a positioned message on the block
+ * (rule `linkage-error`), anything else is re-thrown as a bug.
+ */
+export function withLinkage<T>(block: CalcBlock, context: EvaluationContext, run: () => T): T | null {
+  try {
+    return run()
+  } catch (error) {
+    if (error instanceof LinkageError) {
+      reportError(context.file, 'linkage-error', messages['linkage-error'](`${error.message} (${error.code})`), block.place, error)
+      return null
+    }
+    throw error
+  }
+}

@@ -1,0 +1,63 @@
+/**
+ * Evaluate a note's blocks in dependency order across the whole note. A block
+ * whose dependency failed is reported and skipped; the others go on.
+ */
+import type { VFile } from 'vfile'
+import { blockKinds, type BlockOutcome, type EvaluationContext } from './block-kinds/index.js'
+import { createScope } from './expressions.js'
+import { messages } from './messages.js'
+import { dependencyOrder } from './order.js'
+import { reportError } from './report.js'
+import type { CalcBlock, NoteMeta } from './types.js'
+
+/** Outcomes by block index (null for a block with errors), and the context they were made in. */
+export interface Evaluation {
+  readonly outcomes: readonly (BlockOutcome | null)[]
+  readonly context: EvaluationContext
+}
+
+/** Evaluate blocks (in document order as given) for a note's settings. */
+export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, file: VFile): Evaluation {
+  const context: EvaluationContext = {
+    file,
+    meta,
+    scope: createScope(),
+    blockIds: new Set(blocks.flatMap((b) => (b.id ? [b.id] : []))),
+    outcomes: new Map(),
+    citations: [],
+  }
+  // Blocks without an id still take part: give them a key no expression can name.
+  const keyOf = (block: CalcBlock): string => block.id ?? `#${block.index}`
+  const keys = blocks.map(keyOf)
+  const needs = new Map<string, Set<string>>()
+  for (const block of blocks) {
+    needs.set(keyOf(block), blockKinds.get(block.kind)!.dependencies(block, context.blockIds))
+  }
+  const { order, cycles } = dependencyOrder(keys, needs)
+  const byKey = new Map(blocks.map((b) => [keyOf(b), b]))
+  const outcomes: (BlockOutcome | null)[] = blocks.map(() => null)
+  const failed = new Set<string>()
+  for (const cycle of cycles) {
+    for (const key of new Set(cycle)) {
+      reportError(file, 'dependency-cycle', messages['dependency-cycle'](cycle), byKey.get(key)!.place)
+      failed.add(key)
+    }
+  }
+  for (const key of keys) if (!order.includes(key)) failed.add(key)
+  for (const key of order) {
+    const block = byKey.get(key)!
+    const broken = [...needs.get(key)!].find((dep) => failed.has(dep))
+    if (broken) {
+      reportError(file, 'depends-on-error', messages['depends-on-error'](broken), block.place)
+      failed.add(key)
+      continue
+    }
+    const errorsBefore = file.messages.filter((m) => m.fatal === true).length
+    const result = blockKinds.get(block.kind)!.evaluate(block, context)
+    const errorsAfter = file.messages.filter((m) => m.fatal === true).length
+    outcomes[block.index] = result
+    if (result === null || errorsAfter > errorsBefore) failed.add(key)
+    if (result && block.id) context.outcomes.set(block.id, result)
+  }
+  return { outcomes, context }
+}

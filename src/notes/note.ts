@@ -1,0 +1,174 @@
+/**
+ * Reading a design note: Markdown with YAML front matter and fenced calculation
+ * blocks, parsed with unified/remark, evaluated, and gathered into a model the
+ * render layer turns into a package.
+ *
+ *     note.md ──remark-parse──► mdast ──front matter──► meta
+ *                                 │
+ *                                 ├──calculation blocks──► evaluate in dependency order ──► outcomes
+ *                                 ├──:value / :cite directives──► printed values, citations
+ *                                 └──block fences replaced by lwBlock nodes (rendered later)
+ */
+import { createHash } from 'node:crypto'
+import type { Html, Image, Root } from 'mdast'
+import remarkDirective from 'remark-directive'
+import remarkFrontmatter from 'remark-frontmatter'
+import remarkGfm from 'remark-gfm'
+import remarkMath from 'remark-math'
+import remarkParse from 'remark-parse'
+import { unified } from 'unified'
+import type { Position } from 'unist'
+import { visit } from 'unist-util-visit'
+import type { VFile } from 'vfile'
+import type { Assumption, BlockOutcome, CheckOutcome, Citation } from './block-kinds/kind.js'
+import { findBlocks } from './blocks.js'
+import { evaluateBlocks } from './evaluate.js'
+import { emptyMeta, readFrontMatter } from './front-matter.js'
+import { messages } from './messages.js'
+import { resolveProse } from './prose.js'
+import { builtinReferences } from './references.js'
+import { reportWarning } from './report.js'
+import type { CalcBlock, NoteMeta } from './types.js'
+
+/** Where a calculation block stood in the note, for the render layer. */
+export interface BlockNode {
+  type: 'lwBlock'
+  index: number
+  position?: Position
+}
+
+declare module 'mdast' {
+  interface RootContentMap {
+    lwBlock: BlockNode
+  }
+  interface BlockContentMap {
+    lwBlock: BlockNode
+  }
+}
+
+/** The tool that evaluates: name and version go into the fingerprint. */
+export interface Tool {
+  readonly name: string
+  readonly version: string
+}
+
+/** A numbered reference of the package. */
+export interface NumberedReference {
+  readonly key: string
+  readonly number: number
+  readonly citation: string
+  /** True for the tool's own method references. */
+  readonly builtin: boolean
+}
+
+/** Everything the package shows, in document order. */
+export interface NoteModel {
+  readonly meta: NoteMeta
+  readonly blocks: readonly CalcBlock[]
+  readonly outcomes: readonly (BlockOutcome | null)[]
+  readonly checks: readonly CheckOutcome[]
+  readonly assumptions: readonly Assumption[]
+  readonly references: readonly NumberedReference[]
+  /** sha-256 of the tool name, version and note text (hex). */
+  readonly fingerprint: string
+  readonly tool: Tool
+}
+
+const parser = unified().use(remarkParse).use(remarkFrontmatter, ['yaml']).use(remarkGfm).use(remarkMath).use(remarkDirective).freeze()
+
+/** Parse and evaluate a note. Problems are messages on `file`; this never throws on bad input. */
+export function readNote(file: VFile, tool: Tool): { tree: Root; model: NoteModel } {
+  const tree = parser.parse(file) as Root
+  // 1. Front matter (depends on nothing; everything else depends on its settings).
+  const first = tree.children[0]
+  const meta =
+    first?.type === 'yaml'
+      ? readFrontMatter(first.value, (first.position?.start.line ?? 1) + 1, file)
+      : readFrontMatter(null, 1, file)
+  // 2. Blocks, evaluated in dependency order.
+  const found = findBlocks(tree, file)
+  const blocks = found.map((f) => f.block)
+  const { outcomes, context } = evaluateBlocks(blocks, meta, file)
+  // 3. Prose: values and citations (depends on every block's values).
+  resolveProse(tree, context)
+  flagRemoteResources(tree, file)
+  // 4. Block fences become placeholders the render layer fills.
+  for (const { node, block } of found) {
+    const replacement = node as unknown as BlockNode
+    replacement.type = 'lwBlock'
+    replacement.index = block.index
+    delete (replacement as unknown as { value?: string }).value
+  }
+  const model: NoteModel = {
+    meta: meta ?? emptyMeta,
+    blocks,
+    outcomes,
+    checks: outcomes.flatMap((o) => o?.checks ?? []),
+    assumptions: gatherAssumptions(outcomes),
+    references: numberReferences(meta, blocks, outcomes, context.citations),
+    fingerprint: fingerprint(tool, String(file.value)),
+    tool,
+  }
+  return { tree, model }
+}
+
+/**
+ * Fingerprint of a package: sha-256 over the tool's name and version and the
+ * note's text (line endings normalised), so a signed package is tied to exactly
+ * what was computed.
+ */
+export function fingerprint(tool: Tool, source: string): string {
+  const canonical = JSON.stringify({ tool: tool.name, version: tool.version, note: source.replace(/\r\n?/g, '\n') })
+  return createHash('sha256').update(canonical).digest('hex')
+}
+
+function gatherAssumptions(outcomes: readonly (BlockOutcome | null)[]): Assumption[] {
+  const own = outcomes.flatMap((o) => (o?.block.kind === 'assumptions' ? o.assumptions : []))
+  const method = new Map<string, Assumption>()
+  for (const o of outcomes) {
+    if (!o || o.block.kind === 'assumptions') continue
+    for (const a of o.assumptions) {
+      const seen = method.get(a.text)
+      method.set(a.text, seen ? { ...seen, from: `${seen.from}, ${a.from}` } : a)
+    }
+  }
+  return [...own, ...method.values()]
+}
+
+function numberReferences(
+  meta: NoteMeta,
+  blocks: readonly CalcBlock[],
+  outcomes: readonly (BlockOutcome | null)[],
+  citations: readonly Citation[],
+): NumberedReference[] {
+  const all: Citation[] = [...citations]
+  for (const block of blocks) {
+    for (const step of outcomes[block.index]?.method ?? []) {
+      for (const key of step.cites ?? []) all.push({ key, line: block.place.start.line, column: block.place.start.column })
+    }
+  }
+  all.sort((p, q) => p.line - q.line || p.column - q.column)
+  const numbered: NumberedReference[] = []
+  for (const { key } of all) {
+    if (numbered.some((r) => r.key === key)) continue
+    const own = meta.references.get(key)
+    const builtin = builtinReferences.get(key)
+    if (own === undefined && builtin === undefined) continue
+    numbered.push({ key, number: numbered.length + 1, citation: own ?? builtin!, builtin: own === undefined })
+  }
+  return numbered
+}
+
+function flagRemoteResources(tree: Root, file: VFile): void {
+  const remote = /^(?:[a-z][a-z0-9+.-]*:)?\/\//i
+  visit(tree, (node) => {
+    if (node.type === 'image' && remote.test((node as Image).url)) {
+      reportWarning(file, 'remote-resource', messages['remote-resource']((node as Image).url), node.position)
+    }
+    if (node.type === 'html') {
+      for (const match of (node as Html).value.matchAll(/(?:src|href)\s*=\s*["']?((?:[a-z][a-z0-9+.-]*:)?\/\/[^"'\s>]+)/gi)) {
+        reportWarning(file, 'remote-resource', messages['remote-resource'](match[1]!), node.position)
+      }
+    }
+  })
+}

@@ -1,0 +1,247 @@
+/**
+ * Quantities with units: a restricted mathjs instance (units, arithmetic, the
+ * usual functions) and the dimension kinds a note's inputs and results use.
+ * Everything leaves this module as plain SI numbers; units stay at the boundary.
+ */
+
+import { all, create, type MathJsInstance, type MathNode, type Unit } from 'mathjs'
+
+/** A mathjs instance of our own, so `rpm` and the restrictions do not leak. */
+export const math: MathJsInstance = create(all!, { number: 'number', precision: 64 })
+math.createUnit('rpm', { definition: '1 cycle/min', aliases: ['rev_per_min'] })
+math.createUnit('rev', { definition: '1 cycle', aliases: ['revs', 'revolution', 'revolutions'] })
+
+const parseExpression = math.parse
+const isUnitValue = math.isUnit
+
+// Refuse what a note must never do: define functions or units, import, reach the
+// parser or compiler, or build large matrices (mathjs's own security advice).
+const refused = (name: string) => () => {
+  throw new Error(`"${name}" is not available in a design note`)
+}
+const closed = [
+  'import',
+  'createUnit',
+  'evaluate',
+  'parse',
+  'compile',
+  'simplify',
+  'simplifyConstant',
+  'simplifyCore',
+  'derivative',
+  'resolve',
+  'rationalize',
+  'reviver',
+  'replacer',
+  'help',
+  'parser',
+  'chain',
+  'matrix',
+  'sparse',
+  'zeros',
+  'ones',
+  'identity',
+  'range',
+  'random',
+  'randomInt',
+  'pickRandom',
+]
+math.import(Object.fromEntries(closed.map((name) => [name, refused(name)])), { override: true })
+
+/** Most characters an expression may have: plenty for an engineering formula. */
+export const MAX_EXPRESSION_LENGTH = 400
+
+/** Node types a note's expression may use; assignments and function definitions are refused. */
+const ALLOWED_NODES = new Set([
+  'ConstantNode',
+  'SymbolNode',
+  'OperatorNode',
+  'ParenthesisNode',
+  'FunctionNode',
+  'AccessorNode',
+  'IndexNode',
+  'ConditionalNode',
+])
+
+const REFUSED_NODE_WORDS: Readonly<Record<string, string>> = {
+  AssignmentNode: 'assignments',
+  FunctionAssignmentNode: 'function definitions',
+  ArrayNode: 'lists [ ]',
+  ObjectNode: 'objects { }',
+  RangeNode: 'ranges a:b',
+  BlockNode: 'several statements',
+  RelationalNode: 'chained comparisons',
+}
+
+/** Parse an expression of a note, refusing anything outside arithmetic on quantities. */
+export function parseQuantityExpression(text: string): MathNode {
+  if (text.length > MAX_EXPRESSION_LENGTH) {
+    throw new Error(`the expression is longer than ${MAX_EXPRESSION_LENGTH} characters`)
+  }
+  const node = parseExpression(text)
+  node.traverse((child) => {
+    if (!ALLOWED_NODES.has(child.type)) {
+      const what = REFUSED_NODE_WORDS[child.type] ?? child.type
+      throw new Error(`${what} are not allowed in a design note; write a value or a formula`)
+    }
+    if (child.type === 'IndexNode' && !(child as unknown as { dotNotation: boolean }).dotNotation) {
+      throw new Error('indexing with [ ] is not allowed; refer to results as block.result')
+    }
+  })
+  return node
+}
+
+/** Evaluate a parsed expression against a scope of block objects and quantities. */
+export function evaluateExpression(node: MathNode, scope: Readonly<Record<string, unknown>>): unknown {
+  // A Map scope keeps mathjs from writing into our objects.
+  return node.compile().evaluate(new Map(Object.entries(scope)))
+}
+
+/** True for a mathjs unit value. */
+export function isUnit(value: unknown): value is Unit {
+  return isUnitValue(value)
+}
+
+/** Dimension kinds of the quantities a note uses. */
+export type QuantityKind =
+  | 'length'
+  | 'angle'
+  | 'rotational-speed'
+  | 'angular-velocity'
+  | 'angular-acceleration'
+  | 'velocity'
+  | 'acceleration'
+  | 'time'
+  | 'ratio'
+  | 'count'
+
+interface KindInfo {
+  /** SI unit of the plain numbers the core takes. */
+  readonly si: string
+  /** Display unit per unit system. */
+  readonly SI: string
+  readonly US: string
+  /** Words for messages: "a length". */
+  readonly words: string
+  /** Examples for messages. */
+  readonly examples: string
+}
+
+/** The kinds, their SI unit and default display units. */
+export const KINDS: Readonly<Record<QuantityKind, KindInfo>> = {
+  length: { si: 'm', SI: 'mm', US: 'in', words: 'a length', examples: '45 mm, 1.75 in' },
+  angle: { si: 'rad', SI: 'deg', US: 'deg', words: 'an angle', examples: '12 deg, 0.2 rad' },
+  'rotational-speed': { si: 'rad/s', SI: 'rpm', US: 'rpm', words: 'a rotational speed', examples: '96 rpm, 10 rad/s, 1.6 cycle/s' },
+  'angular-velocity': { si: 'rad/s', SI: 'rad/s', US: 'rad/s', words: 'an angular velocity', examples: '10 rad/s, 96 rpm' },
+  'angular-acceleration': { si: 'rad/s^2', SI: 'rad/s^2', US: 'rad/s^2', words: 'an angular acceleration', examples: '5 rad/s^2' },
+  velocity: { si: 'm/s', SI: 'm/s', US: 'ft/s', words: 'a velocity', examples: '1.2 m/s, 4 ft/s' },
+  acceleration: { si: 'm/s^2', SI: 'm/s^2', US: 'ft/s^2', words: 'an acceleration', examples: '9.81 m/s^2' },
+  time: { si: 's', SI: 's', US: 's', words: 'a time', examples: '0.6 s, 250 ms' },
+  ratio: { si: '', SI: '', US: '', words: 'a plain number', examples: '1.15' },
+  count: { si: '', SI: '', US: '', words: 'a whole number', examples: '361' },
+}
+
+const referenceUnits = new Map<QuantityKind, Unit>()
+function referenceUnit(kind: QuantityKind): Unit | null {
+  const si = KINDS[kind].si
+  if (si === '') return null
+  let unit = referenceUnits.get(kind)
+  if (!unit) {
+    unit = math.unit(`1 ${si}`)
+    referenceUnits.set(kind, unit)
+  }
+  return unit
+}
+
+/** Which kind a unit value has, among those with an SI unit, or null. */
+export function kindOfUnit(value: Unit): QuantityKind | null {
+  // A speed written in turns per time is a rotational speed (shown in rpm), not an angular velocity.
+  if (value.equalBase(referenceUnit('rotational-speed')!) && /rpm|cycle|rev/.test(value.formatUnits())) return 'rotational-speed'
+  for (const kind of ['length', 'angle', 'angular-velocity', 'angular-acceleration', 'velocity', 'acceleration', 'time'] as const) {
+    if (value.equalBase(referenceUnit(kind)!)) return kind
+  }
+  return null
+}
+
+/** Result of reading a value as a quantity of a kind. */
+export type QuantityReading =
+  | { readonly ok: true; readonly si: number }
+  | { readonly ok: false; readonly reason: string; readonly actualKind: string }
+
+/** Read an evaluated value as a quantity of `kind`, giving SI as a plain number. */
+export function readQuantity(value: unknown, kind: QuantityKind): QuantityReading {
+  const info = KINDS[kind]
+  if (kind === 'ratio' || kind === 'count') {
+    if (typeof value === 'number' && Number.isFinite(value)) {
+      if (kind === 'count' && !Number.isInteger(value)) {
+        return { ok: false, reason: `expected ${info.words}, got ${value}`, actualKind: 'a fraction' }
+      }
+      return { ok: true, si: value }
+    }
+    if (isUnit(value) && value.equalBase(math.unit('1'))) return { ok: true, si: value.toNumber('') }
+    return { ok: false, reason: `expected ${info.words} (${info.examples})`, actualKind: describeValue(value) }
+  }
+  if (typeof value === 'number') {
+    return {
+      ok: false,
+      reason: `expected ${info.words} with a unit (e.g. ${info.examples}), got the bare number ${value}`,
+      actualKind: 'a bare number',
+    }
+  }
+  if (!isUnit(value)) {
+    return { ok: false, reason: `expected ${info.words} (${info.examples})`, actualKind: describeValue(value) }
+  }
+  if (!value.equalBase(referenceUnit(kind)!)) {
+    return {
+      ok: false,
+      reason: `expected ${info.words} (${info.examples}), got ${describeValue(value)}`,
+      actualKind: describeValue(value),
+    }
+  }
+  const si = value.toNumber(info.si)
+  if (!Number.isFinite(si)) return { ok: false, reason: `expected a finite value, got ${si}`, actualKind: 'not finite' }
+  return { ok: true, si }
+}
+
+/** Words for what a value is, for messages: "a force (12 N)". */
+export function describeValue(value: unknown): string {
+  if (isUnit(value)) {
+    const kind = kindOfUnit(value)
+    const text = value.format({ precision: 6 })
+    if (kind) return `${KINDS[kind].words} (${text})`
+    if (value.equalBase(math.unit('1 N'))) return `a force (${text})`
+    if (value.equalBase(math.unit('1 Hz'))) return `a frequency (${text}; write a rotational speed as rpm, rad/s or cycle/s)`
+    if (value.equalBase(math.unit('1 Pa'))) return `a pressure or stress (${text})`
+    if (value.equalBase(math.unit('1 kg'))) return `a mass (${text})`
+    if (value.equalBase(math.unit('1 J'))) return `an energy or torque (${text})`
+    return `a quantity in ${value.formatUnits() || 'no unit'} (${text})`
+  }
+  if (typeof value === 'number') return `the number ${value}`
+  if (typeof value === 'boolean') return `the truth value ${value}`
+  if (typeof value === 'string') return `the word "${value}"`
+  return 'a value that is not a quantity'
+}
+
+/** A mathjs unit value from an SI number of a kind (ratios stay numbers). */
+export function toUnit(si: number, kind: QuantityKind): Unit | number {
+  const unit = KINDS[kind].si
+  return unit === '' ? si : math.unit(si, unit)
+}
+
+/** Convert an SI number of a kind into a display unit (e.g. 0.04 m → 40 for "mm"). */
+export function fromSI(si: number, kind: QuantityKind, unit: string): number {
+  const base = KINDS[kind].si
+  if (base === '' || unit === base) return si
+  return math.unit(si, base).toNumber(unit)
+}
+
+/** True when `unit` is a unit of the kind (used to check display-unit overrides). */
+export function unitFitsKind(unit: string, kind: QuantityKind): boolean {
+  const reference = referenceUnit(kind)
+  if (!reference) return unit === ''
+  try {
+    return math.unit(`1 ${unit}`).equalBase(reference)
+  } catch {
+    return false
+  }
+}

@@ -1,0 +1,194 @@
+/**
+ * A calculation block in the package: inputs table, method (equation, numbers,
+ * result), results table and warnings; checks, tables and assumptions in place.
+ */
+import type { Element, ElementContent } from 'hast'
+import { h } from 'hastscript'
+import type { BlockOutcome } from '../notes/block-kinds/kind.js'
+import { displayValue } from '../notes/display.js'
+import type { NoteModel } from '../notes/note.js'
+import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
+import { texNode } from './equation.js'
+import { table, verdict, withCitations, type ReferenceNumbers } from './markup.js'
+
+/** Shared lookups while rendering one package. */
+export interface RenderContext {
+  readonly model: NoteModel
+  readonly references: ReferenceNumbers
+  /** Assumption text → its number (A1, A2 …). */
+  readonly assumptionNumbers: ReadonlyMap<string, string>
+}
+
+/** Render one block's outcome; a block with errors shows its source and a note. */
+export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, context: RenderContext): Element {
+  const heading = blockHeading(block, outcome?.kindLabel ?? block.kind)
+  if (!outcome) {
+    return h(`section.lw-block.lw-block-error`, { id: blockAnchor(block), ariaLabel: `${block.kind} block with errors` }, [
+      heading,
+      h('p.lw-error', 'This block has errors (see the build messages); its results are not shown and nothing that depends on it was evaluated.'),
+    ])
+  }
+  const parts: (Element | null)[] = [heading]
+  if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, block.kind === 'given' ? 'Design inputs' : 'Inputs'))
+  if (outcome.method.length > 0) parts.push(methodList(outcome, context))
+  if (outcome.results.length > 0) parts.push(resultsTable(outcome.results, context))
+  if (outcome.warnings.length > 0) {
+    parts.push(
+      h('div.lw-warnings', { role: 'note', ariaLabel: 'Warnings' }, [
+        h('p.lw-warnings-title', 'Warnings'),
+        h('ul', outcome.warnings.map((w) => h('li', w))),
+      ]),
+    )
+  }
+  if (outcome.checks.length > 0) parts.push(checksTable(outcome, context))
+  if (outcome.table) parts.push(sweepTable(outcome, context))
+  if (block.kind === 'assumptions') {
+    parts.push(
+      h(
+        'ol.lw-assumption-list',
+        outcome.assumptions.map((a) =>
+          h('li', [
+            h('span.lw-assumption-number', `${context.assumptionNumbers.get(a.text) ?? ''} `),
+            ...withCitations(a.text, context.references),
+            a.verify ? h('span.lw-verify', ' (to be verified)') : null,
+          ]),
+        ),
+      ),
+    )
+  }
+  return h(`section.lw-block.lw-kind-${block.kind}`, { id: blockAnchor(block) }, parts)
+}
+
+/** Anchor id of a block. */
+export function blockAnchor(block: CalcBlock): string {
+  return block.id ? `block-${block.id}` : `block-${block.index + 1}`
+}
+
+function blockHeading(block: CalcBlock, label: string): Element {
+  return h('div.lw-block-heading', [
+    h('span.lw-block-kind', label),
+    block.id ? h('code.lw-block-id', `#${block.id}`) : null,
+    block.title ? h('span.lw-block-title', block.title) : null,
+  ])
+}
+
+function symbolCell(symbol: string | null): ElementContent[] {
+  return symbol ? [texNode(symbol, false) as unknown as ElementContent] : []
+}
+
+function inputsTable(inputs: readonly InputValue[], context: RenderContext, caption: string): Element {
+  const { meta } = context.model
+  return table(
+    'lw-inputs',
+    caption,
+    ['Symbol', 'Quantity', 'Value', 'Unit', 'Source'],
+    inputs.map((input) => {
+      const shown = displayValue(input.value, meta.units, meta.digits)
+      const written = input.expression
+      const from = blocksUsed(written, context)
+      const source: ElementContent[] = !input.given
+        ? [h('span.lw-default', 'default')]
+        : input.source
+          ? withCitations(input.source, context.references)
+          : from.length > 0
+            ? [text('from '), ...from.flatMap((b, i) => [...(i > 0 ? [text(', ')] : []), h('a', { href: `#${blockAnchor(b)}` }, `#${b.id}`)])]
+            : [h('span.lw-missing-source', 'no source given')]
+      if (!isLiteral(written, shown.unit) && input.value.type !== 'text') {
+        source.push(h('span.lw-written', [' — written ', h('code', written)]))
+      }
+      return [symbolCell(input.symbol), input.label, h('span.lw-number', shown.number), shown.label, source]
+    }),
+  )
+}
+
+function text(value: string): ElementContent {
+  return { type: 'text', value }
+}
+
+/** True when the text is a plain number, optionally with the display unit itself. */
+function isLiteral(text: string, unit: string): boolean {
+  const match = /^\s*-?\d+(?:\.\d+)?(?:e[-+]?\d+)?\s*(\S*)\s*$/i.exec(text)
+  return match !== null && (match[1] === '' || match[1] === unit)
+}
+
+/** The blocks an input's expression refers to, in document order. */
+function blocksUsed(expression: string, context: RenderContext): CalcBlock[] {
+  return context.model.blocks.filter((b) => b.id !== null && new RegExp(`(^|[^A-Za-z0-9_.])${b.id}\\.`).test(expression))
+}
+
+function resultsTable(results: readonly NamedValue[], context: RenderContext): Element {
+  const { meta } = context.model
+  return table(
+    'lw-results',
+    'Results',
+    ['Symbol', 'Result', 'Value', 'Unit', 'Name'],
+    results.map((r) => {
+      const shown = displayValue(r.value, meta.units, meta.digits)
+      const value = r.value.type === 'none' ? h('span.lw-none', { title: r.value.reason }, `— ${r.value.reason}`) : h('span.lw-number', shown.number)
+      return [symbolCell(r.symbol), r.label, value, shown.label, h('code', r.name)]
+    }),
+  )
+}
+
+function methodList(outcome: BlockOutcome, context: RenderContext): Element {
+  return h('div.lw-method', [
+    h('p.lw-part-title', 'Method'),
+    h(
+      'ol.lw-steps',
+      outcome.method.map((step) =>
+        h('li.lw-step', [
+          h('p.lw-step-label', [
+            step.label,
+            ...(step.cites ?? []).flatMap((key) => {
+              const ref = context.references.get(key)
+              return ref ? [' ', h('a.lw-cite', { href: `#ref-${key}`, title: ref.citation }, `[${ref.number}]`)] : []
+            }),
+          ]),
+          h('div.lw-eq.lw-eq-formula', { title: 'governing equation' }, [texNode(step.formula, true) as unknown as ElementContent]),
+          step.substituted ? h('div.lw-eq.lw-eq-numbers', { title: 'with the input values' }, [texNode(step.substituted, true) as unknown as ElementContent]) : null,
+          h('div.lw-eq.lw-eq-result', { title: 'result' }, [texNode(step.result, true) as unknown as ElementContent]),
+          step.note ? h('p.lw-step-note', step.note) : null,
+        ]),
+      ),
+    ),
+  ])
+}
+
+function checksTable(outcome: BlockOutcome, context: RenderContext): Element {
+  return table(
+    'lw-checks',
+    'Acceptance checks',
+    ['Result', 'Check', 'Value', 'Limit', 'Margin', 'Source'],
+    outcome.checks.map((c) => [
+      verdict(c.passed),
+      [h('span', c.label), h('br'), h('code.lw-condition', c.condition)],
+      h('span.lw-number', c.actual),
+      c.limit,
+      c.margin,
+      c.source ? withCitations(c.source, context.references) : [h('span.lw-missing-source', 'no source given')],
+    ]),
+    (i) => (outcome.checks[i]!.passed ? 'lw-row-pass' : 'lw-row-fail'),
+  )
+}
+
+function sweepTable(outcome: BlockOutcome, context: RenderContext): Element {
+  const t = outcome.table!
+  const anchor = context.model.blocks.find((b) => b.id === t.of)
+  return h('div.lw-sweep-table', [
+    h('p.lw-part-title', [
+      'Values over the cycle of ',
+      anchor ? h('a', { href: `#${blockAnchor(anchor)}` }, `#${t.of}`) : `#${t.of}`,
+      '; marked rows are the dead centres, toggles and limits.',
+    ]),
+    table(
+      'lw-sweep',
+      null,
+      t.columns.map((c) => (c.unit ? `${c.label} (${c.unit})` : c.label)),
+      t.rows.map((row) => [
+        row.marker ? [h('span.lw-number', row.cells[0]!), h('span.lw-marker', ` ${row.marker}`)] : h('span.lw-number', row.cells[0]!),
+        ...row.cells.slice(1).map((cell) => h('span.lw-number', cell)),
+      ]),
+      (i) => (t.rows[i]!.marker ? 'lw-row-marker' : null),
+    ),
+  ])
+}

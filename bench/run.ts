@@ -4,7 +4,9 @@
  */
 import { runCoreBench } from './core.js'
 import { machine } from './measure.js'
+import { runPackageBench } from './package.js'
 
 const only = process.argv[2]
 console.log(`linkwright benchmarks — ${machine()}`)
 if (!only || only === 'core') await runCoreBench()
+if (!only || only === 'package') await runPackageBench()

@@ -77,12 +77,17 @@ export function readBody(text: string, origin: BodyOrigin): Body {
       const cut = raw.indexOf(';')
       const valueText = (cut < 0 ? raw : raw.slice(0, cut)).trim()
       const source = cut < 0 ? null : raw.slice(cut + 1).trim() || null
+      // The place of the expression alone (a plain scalar starts at its range).
+      const range = value?.range
+      const valueRange: [number, number] | undefined = range
+        ? [range[0], Math.min(range[1], range[0] + Math.max(1, valueText.length))]
+        : undefined
       entries.push({
         name: String(key.value).trim(),
         namePlace: span(key.range),
         raw,
         value: valueText,
-        valuePlace: span(value?.range ?? key.range),
+        valuePlace: span(valueRange ?? key.range),
         source,
       })
     }

@@ -52,6 +52,11 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
       failed.add(key)
       continue
     }
+    // A body that is not valid YAML was reported already; its entries would only add noise.
+    if (block.body.problems.length > 0) {
+      failed.add(key)
+      continue
+    }
     const errorsBefore = file.messages.filter((m) => m.fatal === true).length
     const result = blockKinds.get(block.kind)!.evaluate(block, context)
     const errorsAfter = file.messages.filter((m) => m.fatal === true).length

@@ -92,6 +92,9 @@ export function evaluateText(
     const undefinedSymbol = /Undefined symbol (\w+)/.exec(text_)
     if (undefinedSymbol) {
       const name = undefinedSymbol[1]!
+      if (blockIds.has(name) && !scope.values.has(name)) {
+        return { ok: false, ruleId: 'depends-on-error', reason: messages['invalid-expression'](text, `block \`${name}\` has errors, so its values are not available`) }
+      }
       return blockIds.has(name)
         ? { ok: false, ruleId: 'invalid-expression', reason: messages['invalid-expression'](text, `\`${name}\` is a block, refer to one of its values as \`${name}.name\``) }
         : { ok: false, ruleId: 'unknown-block', reason: messages['invalid-expression'](text, `\`${name}\` is neither a unit, a function, an input of this block nor a block id`) }

@@ -73,8 +73,20 @@ const REFUSED_NODE_WORDS: Readonly<Record<string, string>> = {
   RelationalNode: 'chained comparisons',
 }
 
-/** Parse an expression of a note, refusing anything outside arithmetic on quantities. */
+const parsed = new Map<string, MathNode>()
+const PARSED_LIMIT = 10_000
+
+/** Parse an expression of a note, refusing anything outside arithmetic on quantities. Cached by text. */
 export function parseQuantityExpression(text: string): MathNode {
+  const known = parsed.get(text)
+  if (known) return known
+  const node = parseChecked(text)
+  if (parsed.size >= PARSED_LIMIT) parsed.clear()
+  parsed.set(text, node)
+  return node
+}
+
+function parseChecked(text: string): MathNode {
   if (text.length > MAX_EXPRESSION_LENGTH) {
     throw new Error(`the expression is longer than ${MAX_EXPRESSION_LENGTH} characters`)
   }
@@ -91,10 +103,17 @@ export function parseQuantityExpression(text: string): MathNode {
   return node
 }
 
+const compiled = new WeakMap<MathNode, { evaluate(scope: Map<string, unknown>): unknown }>()
+
 /** Evaluate a parsed expression against a scope of block objects and quantities. */
 export function evaluateExpression(node: MathNode, scope: Readonly<Record<string, unknown>>): unknown {
+  let code = compiled.get(node)
+  if (!code) {
+    code = node.compile()
+    compiled.set(node, code)
+  }
   // A Map scope keeps mathjs from writing into our objects.
-  return node.compile().evaluate(new Map(Object.entries(scope)))
+  return code.evaluate(new Map(Object.entries(scope)))
 }
 
 /** True for a mathjs unit value. */

@@ -55,11 +55,10 @@ const schema: Schema = {
   },
 }
 
-const afterMarkdown = unified()
-  .use(rehypeRaw)
-  .use(rehypeSanitize, schema)
-  .use(rehypeKatex, { strict: () => 'ignore', throwOnError: false })
-  .freeze()
+const katexOptions = { strict: () => 'ignore' as const, throwOnError: false }
+// rehype-raw re-parses the whole tree with parse5: only worth it when the note has HTML.
+const withRawHtml = unified().use(rehypeRaw).use(rehypeSanitize, schema).use(rehypeKatex, katexOptions).freeze()
+const withoutRawHtml = unified().use(rehypeSanitize, schema).use(rehypeKatex, katexOptions).freeze()
 
 const templates = new Map<string, HastRoot>()
 
@@ -91,7 +90,12 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
   shiftHeadings(tree, model.meta.title)
   const hast = toHast(tree, { handlers, allowDangerousHtml: true }) as HastRoot
   // 3. Make the note's own HTML safe, typeset its math.
-  const body = afterMarkdown.runSync(hast, file) as HastRoot
+  let hasRaw = false
+  visit(hast, 'raw', () => {
+    hasRaw = true
+    return false
+  })
+  const body = (hasRaw ? withRawHtml : withoutRawHtml).runSync(hast, file) as HastRoot
   foldKatexCauses(file)
   // 4. Put our markup into the slots (after sanitising, so it is kept as it is).
   visit(body, 'element', (node, index, parent) => {
@@ -100,11 +104,11 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
     parent.children.splice(index, 1, ...(content as RootContent[] as Element[]))
     return [SKIP, index + content.length]
   })
-  // 5. The shell.
+  // 5. The shell: its slots are found once in the small template, then filled.
   const shell = structuredClone(template(options.template))
-  const date = options.date
+  const slotsOfShell = findSlots(shell)
   const sections: Record<string, ElementContent[]> = {
-    cover: [cover(model, date)],
+    cover: [cover(model, options.date)],
     revisions: [revisionHistory(model)],
     summary: [summary(model, context)],
     body: body.children as ElementContent[],
@@ -115,9 +119,9 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
     'sign-off': [signOff(model)],
     footer: [footer(model)],
   }
-  fillShell(shell, model, sections)
-  numberSections(shell)
-  fillSlot(shell, 'contents', [contents(shell)])
+  decorateShell(slotsOfShell.elements, model)
+  for (const [name, content] of Object.entries(sections)) fillSlot(slotsOfShell, name, content)
+  fillSlot(slotsOfShell, 'contents', [contents(numberSections(shell))])
   return toHtml(shell, { allowDangerousHtml: true })
 }
 
@@ -149,25 +153,39 @@ function template(text: string): HastRoot {
   return parsed
 }
 
-function fillShell(shell: HastRoot, model: NoteModel, sections: Record<string, ElementContent[]>): void {
-  visit(shell, 'element', (node) => {
+/** Slots and the title and body elements of a shell, found in one pass. */
+interface ShellSlots {
+  readonly slots: Map<string, { slot: Element; parent: Element | HastRoot }>
+  readonly elements: Element[]
+}
+
+function findSlots(shell: HastRoot): ShellSlots {
+  const slots = new Map<string, { slot: Element; parent: Element | HastRoot }>()
+  const elements: Element[] = []
+  visit(shell, 'element', (node, _index, parent) => {
+    if (node.tagName === 'lw-slot' && parent) slots.set(String(node.properties.name), { slot: node, parent })
+    if (node.tagName === 'title' || node.tagName === 'body') elements.push(node)
+  })
+  return { slots, elements }
+}
+
+function decorateShell(elements: readonly Element[], model: NoteModel): void {
+  for (const node of elements) {
     if (node.tagName === 'title') node.children = [{ type: 'text', value: `${model.meta.number} rev ${model.meta.revision} — ${model.meta.title}` }]
     if (node.tagName === 'body') {
       const classes = [`lw-status-${model.meta.status.replace(' ', '-')}`, `lw-paper-${model.meta.paper.toLowerCase()}`]
       node.properties.className = [...((node.properties.className as string[] | undefined) ?? []), ...classes]
       node.properties.dataStatus = statusWords(model.meta.status)
     }
-  })
-  for (const [name, content] of Object.entries(sections)) fillSlot(shell, name, content)
+  }
 }
 
-/** Replace `<lw-slot name="…">` in a tree with content. */
-export function fillSlot(tree: HastRoot, name: string, content: ElementContent[]): void {
-  visit(tree, 'element', (node, index, parent) => {
-    if (node.tagName !== 'lw-slot' || node.properties.name !== name || !parent || index === undefined) return undefined
-    parent.children.splice(index, 1, ...(content as Element[]))
-    return [SKIP, index + content.length]
-  })
+/** Replace a named slot of the shell with content. */
+function fillSlot(shell: ShellSlots, name: string, content: ElementContent[]): void {
+  const found = shell.slots.get(name)
+  if (!found) return
+  const index = found.parent.children.indexOf(found.slot)
+  if (index >= 0) found.parent.children.splice(index, 1, ...(content as Element[]))
 }
 
 /** rehype-katex puts the parse error in `cause`; bring its words into the reason. */

@@ -1,0 +1,58 @@
+/**
+ * The price of the calculation layer: HTML build of the demo notes against the
+ * same Markdown through a plain unified pipeline (blocks left as code); and the
+ * command line's start-up (`linkwright check` of one note) against `node -e 0`.
+ */
+import { spawnSync } from 'node:child_process'
+import { readFileSync } from 'node:fs'
+import { join } from 'node:path'
+import rehypeStringify from 'rehype-stringify'
+import remarkParse from 'remark-parse'
+import remarkRehype from 'remark-rehype'
+import { unified } from 'unified'
+import { VFile } from 'vfile'
+import { buildNote } from '../src/build.js'
+import { TOOL } from '../src/version.js'
+import { median, printTable } from './measure.js'
+
+const root = process.cwd()
+const notes = ['reports/carton-pusher.md', 'reports/sieve-rocker.md'].map((path) => ({ path, text: readFileSync(join(root, path), 'utf8') }))
+const template = readFileSync(join(root, 'templates/package.html'), 'utf8')
+
+function buildAll(): void {
+  for (const note of notes) {
+    const file = new VFile({ path: note.path, value: note.text })
+    const built = buildNote(file, { tool: TOOL, notePath: note.path, template, commit: 'bench' })
+    if (!built.html) throw new Error(`${note.path} did not build`)
+  }
+}
+
+const plain = unified().use(remarkParse).use(remarkRehype).use(rehypeStringify).freeze()
+function plainAll(): void {
+  for (const note of notes) plain.processSync(note.text)
+}
+
+function wall(command: string, args: readonly string[]): number {
+  const start = performance.now()
+  spawnSync(command, args, { cwd: root, stdio: 'ignore' })
+  return performance.now() - start
+}
+
+export async function runPackageBench(): Promise<void> {
+  const coldStart = performance.now()
+  buildAll()
+  const cold = performance.now() - coldStart
+  const warm = await median(buildAll, 9, 2)
+  const bare = await median(plainAll, 9, 3)
+  const node = await median(() => wall(process.execPath, ['-e', '0']), 7, 1)
+  const check = await median(() => wall(process.execPath, ['bin/linkwright.js', 'check', 'reports/sieve-rocker.md']), 7, 1)
+  printTable('Package build (2 demo notes, HTML only, in process)', [
+    { name: 'plain unified pipeline (blocks left as code)', value: `${bare.toFixed(2)} ms` },
+    { name: 'linkwright HTML build, first in process', value: `${cold.toFixed(1)} ms`, note: `${(cold / bare).toFixed(1)} × plain (includes first-use costs)` },
+    { name: 'linkwright HTML build, warm', value: `${warm.toFixed(1)} ms`, note: `${(warm / bare).toFixed(1)} × plain (target ≤ 4 ×)` },
+  ])
+  printTable('Command-line start-up', [
+    { name: '`node -e 0`', value: `${node.toFixed(0)} ms` },
+    { name: '`linkwright check reports/sieve-rocker.md`', value: `${check.toFixed(0)} ms`, note: `${(check / node).toFixed(1)} × node -e 0 (target ≤ 10 ×)` },
+  ])
+}

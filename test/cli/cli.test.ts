@@ -1,0 +1,115 @@
+/**
+ * The command line as users run it: the built binary on notes in a temporary
+ * folder. Needs `npm run build` first (part of `npm test`).
+ */
+import { spawnSync } from 'node:child_process'
+import { cpSync, existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { analyseSliderCrank, sliderCrank } from '../../src/linkage/index.js'
+
+const root = new URL('../../', import.meta.url).pathname
+const bin = join(root, 'bin', 'linkwright.js')
+
+function run(args: readonly string[], cwd: string) {
+  const result = spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } })
+  return { code: result.status, stdout: result.stdout, stderr: result.stderr }
+}
+
+function workspace(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'linkwright-cli-'))
+  cpSync(join(root, 'reports'), join(dir, 'reports'), { recursive: true })
+  return dir
+}
+
+describe('linkwright build', () => {
+  let dir: string
+  let result: ReturnType<typeof run>
+  beforeAll(() => {
+    dir = workspace()
+    result = run(['build', '--no-pdf'], dir)
+  })
+
+  it('should build every demo note and exit 0 (a FAIL check is a result, not an error)', () => {
+    expect(result.stderr).not.toMatch(/error/)
+    expect(result.code).toBe(0)
+    expect(existsSync(join(dir, 'out/carton-pusher/index.html'))).toBe(true)
+    expect(existsSync(join(dir, 'out/sieve-rocker/index.html'))).toBe(true)
+    expect(existsSync(join(dir, 'out/carton-pusher/assets/katex/fonts/KaTeX_Main-Regular.woff2'))).toBe(true)
+  })
+
+  it('should write results.json with SI values, display values and every check', () => {
+    const results = JSON.parse(readFileSync(join(dir, 'out/carton-pusher/results.json'), 'utf8'))
+    expect(results.schema).toBe('linkwright-results/1')
+    const pusher = results.blocks.find((b: { id: string }) => b.id === 'pusher')
+    const core = analyseSliderCrank(sliderCrank({ crank: 0.038, rod: 0.104, offset: 0.03, rotation: -1 }), { speed: (96 * 2 * Math.PI) / 60 })
+    expect(pusher.results.stroke.si).toBeCloseTo(core.stroke, 15)
+    expect(pusher.results.stroke.siUnit).toBe('m')
+    expect(pusher.results.stroke.displayUnit).toBe('mm')
+    expect(pusher.results.time_ratio.si).toBeCloseTo(core.timeRatio!, 14)
+    expect(pusher.inputs.crank).toMatchObject({ si: 0.038, expression: '38 mm', source: '[dwg-4410] item 3', given: true })
+    expect(results.checks.map((c: { status: string }) => c.status)).toEqual(['PASS', 'PASS', 'PASS', 'PASS', 'PASS', 'FAIL'])
+    expect(results.summary).toMatchObject({ checks: 6, failed: 1, errors: 0 })
+  })
+
+  it('should give byte-identical output when run again', () => {
+    const first = readFileSync(join(dir, 'out/carton-pusher/index.html'))
+    const again = run(['build', '--no-pdf', '--quiet'], dir)
+    expect(again.code).toBe(0)
+    expect(readFileSync(join(dir, 'out/carton-pusher/index.html')).equals(first)).toBe(true)
+  })
+
+  it('should keep the last good package of a broken note, build the others and exit 1', () => {
+    const work = workspace()
+    expect(run(['build', '--no-pdf', '--quiet'], work).code).toBe(0)
+    const before = readFileSync(join(work, 'out/carton-pusher/index.html'))
+    writeFileSync(join(work, 'out/carton-pusher/marker.txt'), 'kept')
+    const note = readFileSync(join(work, 'reports/carton-pusher.md'), 'utf8')
+    writeFileSync(join(work, 'reports/carton-pusher.md'), note.replace('crank: 38 mm', 'crank: 38 kg'))
+    const broken = run(['build', '--no-pdf'], work)
+    expect(broken.code).toBe(1)
+    expect(broken.stderr).toContain('reports/carton-pusher.md:51:8  error  Unexpected value for `crank` (crank radius): expected a length')
+    expect(broken.stderr).toContain('  51 | crank: 38 kg ; [dwg-4410] item 3')
+    expect(broken.stderr).toMatch(/\n {5}\| {8}\^{5}\n/)
+    expect(readFileSync(join(work, 'out/carton-pusher/index.html')).equals(before)).toBe(true)
+    expect(readFileSync(join(work, 'out/carton-pusher/marker.txt'), 'utf8')).toBe('kept')
+    expect(broken.stdout).toContain('reports/sieve-rocker.md: out/sieve-rocker/index.html')
+  })
+})
+
+describe('linkwright check', () => {
+  it('should print each failing check and exit 1', () => {
+    const dir = workspace()
+    const result = run(['check'], dir)
+    expect(result.code).toBe(1)
+    expect(result.stdout).toContain('reports/carton-pusher.md: 5 of 6 checks pass')
+    expect(result.stdout).toMatch(/reports\/carton-pusher\.md:\d+ {2}FAIL {2}option B quick return: 1\.0000, limit ≥ 1\.1500/)
+  })
+
+  it('should exit 0 when every check passes', () => {
+    const dir = workspace()
+    const result = run(['check', 'reports/sieve-rocker.md'], dir)
+    expect(result.stdout).toContain('4 of 4 checks pass')
+    expect(result.code).toBe(0)
+  })
+})
+
+describe('command line', () => {
+  it('should print help for the tool and each command', async () => {
+    const dir = workspace()
+    for (const args of [['--help'], ['build', '--help'], ['check', '--help']]) {
+      const result = run(args, dir)
+      expect(result.code).toBe(0)
+      const name = args.length === 1 ? 'linkwright' : args[0]!
+      await expect(result.stdout).toMatchFileSnapshot(`./help/${name}.txt`)
+    }
+  })
+
+  it('should exit 2 on an unknown command or option', () => {
+    const dir = workspace()
+    expect(run(['bulid'], dir).code).toBe(2)
+    expect(run(['build', '--fast'], dir).code).toBe(2)
+    expect(run(['build', '--paper', 'A3'], dir).code).toBe(2)
+  })
+})

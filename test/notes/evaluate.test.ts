@@ -1,0 +1,169 @@
+/**
+ * Evaluation of notes: units at the boundary, dependency order across the note,
+ * expressions over other blocks, checks, tables, assumptions and prose values.
+ */
+import { describe, expect, it } from 'vitest'
+import { analyseFourBar, analyseSliderCrank, fourBar, sliderCrank } from '../../src/linkage/index.js'
+import type { NamedValue } from '../../src/notes/types.js'
+import { expectClose } from '../helpers/close.js'
+import { read } from '../helpers/note.js'
+
+const si = (values: readonly NamedValue[], name: string): number => {
+  const v = values.find((r) => r.name === name)?.value
+  if (v?.type !== 'quantity') throw new Error(`${name} is not a quantity`)
+  return v.si
+}
+
+describe('units at the boundary', () => {
+  it('should take inches, millimetres and rpm and give the core SI numbers', () => {
+    const { file, model } = read('```slider-crank #drive\ncrank: 1.5 in\nrod: 152.4 mm\noffset: 0.5 in\nspeed: 120 rpm\n```\n')
+    expect(file.messages.filter((m) => m.fatal)).toEqual([])
+    const outcome = model.outcomes[0]!
+    expectClose(si(outcome.inputs, 'crank'), 0.0381, { rel: 1e-15 })
+    expectClose(si(outcome.inputs, 'rod'), 0.1524, { rel: 1e-15 })
+    expectClose(si(outcome.inputs, 'speed'), 4 * Math.PI, { rel: 1e-15 })
+    // The numbers read, straight into the core, give the block's results exactly.
+    const read_ = (name: string) => si(outcome.inputs, name)
+    const core = analyseSliderCrank(sliderCrank({ crank: read_('crank'), rod: read_('rod'), offset: read_('offset') }), { speed: read_('speed') })
+    expect(si(outcome.results, 'stroke')).toBe(core.stroke)
+    expect(si(outcome.results, 'time_ratio')).toBe(core.timeRatio)
+    expect(si(outcome.results, 'peak_acceleration')).toBe(core.peakAcceleration.value)
+  })
+})
+
+describe('dependency order', () => {
+  it('should evaluate a block that uses a later block after it, whatever the order written', () => {
+    const { file, model } = read(
+      [
+        '```slider-crank #follower',
+        'crank: leader.stroke / 4',
+        'rod: 3 * leader.crank',
+        'speed: leader.speed * 2',
+        '```',
+        '',
+        '```slider-crank #leader',
+        'crank: 30 mm',
+        'rod: 120 mm',
+        'speed: 50 rpm',
+        '```',
+        '',
+      ].join('\n'),
+    )
+    expect(file.messages.filter((m) => m.fatal)).toEqual([])
+    const follower = model.outcomes[0]!
+    expectClose(si(follower.inputs, 'crank'), 0.06 / 4, { rel: 1e-14 })
+    expectClose(si(follower.inputs, 'rod'), 0.09, { rel: 1e-14 })
+    expectClose(si(follower.inputs, 'speed'), (100 * 2 * Math.PI) / 60, { rel: 1e-14 })
+  })
+
+  it('should let an input use another input of the same block', () => {
+    const { model } = read('```slider-crank #drive\nrod: 4.2 * crank\ncrank: 25 mm\nspeed: 60 rpm\n```\n')
+    expectClose(si(model.outcomes[0]!.inputs, 'rod'), 0.105, { rel: 1e-14 })
+  })
+
+  it('should take given values with units and sources', () => {
+    const { model } = read('```given #duty\nstroke: 80 mm ; [alpha] p. 4\nrate: 96 rpm\nload: 1.2 kN\n```\n')
+    const inputs = model.outcomes[0]!.inputs
+    expect(inputs.map((i) => [i.name, i.value.type, i.source])).toEqual([
+      ['stroke', 'quantity', '[alpha] p. 4'],
+      ['rate', 'quantity', null],
+      ['load', 'other', null],
+    ])
+    expect(model.references.map((r) => r.key)).toEqual(['alpha'])
+  })
+})
+
+describe('four-bar block', () => {
+  it('should give the core’s numbers for the block’s inputs', () => {
+    const { model } = read('```four-bar #sieve\nground: 100 mm\ninput: 40 mm\ncoupler: 120 mm\noutput: 80 mm\nspeed: 10 rad/s\n```\n')
+    const results = model.outcomes[0]!.results
+    const core = analyseFourBar(fourBar({ ground: 0.1, input: 0.04, coupler: 0.12, output: 0.08 }), { speed: 10 })
+    expect(results.find((r) => r.name === 'grashof_class')!.value).toEqual({ type: 'text', text: 'crank-rocker' })
+    expect(si(results, 'transmission_angle_min')).toBe(core.transmissionMin.value)
+    expect(si(results, 'output_swing')).toBe(core.outputSwing)
+    expect(si(results, 'time_ratio')).toBe(core.timeRatio)
+    expect(model.outcomes[0]!.warnings.some((w) => w.startsWith('The transmission angle falls to 26.38'))).toBe(true)
+  })
+})
+
+describe('checks', () => {
+  const note = (conditions: string) =>
+    `\`\`\`slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\nspeed: 60 rpm\n\`\`\`\n\n\`\`\`checks\n${conditions}\n\`\`\`\n`
+
+  it('should give PASS and FAIL with the margin, for limits and for bands', () => {
+    const { model } = read(
+      note(
+        [
+          'stroke in band: drive.stroke = 80 mm ± 0.5 mm ; [alpha] §3',
+          'stroke off band: drive.stroke = 81 mm ± 0.5 mm',
+          'angle: drive.transmission_angle_min >= 70 deg',
+          'ratio: drive.time_ratio <= 1.0',
+          'strict: drive.time_ratio < 1',
+        ].join('\n'),
+      ),
+    )
+    expect(model.checks.map((c) => [c.label, c.passed])).toEqual([
+      ['stroke in band', true],
+      ['stroke off band', false],
+      ['angle', true],
+      ['ratio', true],
+      ['strict', false],
+    ])
+    expect(model.checks[0]!.margin).toBe('0.50000 mm')
+    expect(model.checks[1]!.margin).toBe('−0.50000 mm')
+    // μmin = acos(40/160) = 75.52°, margin over 70°.
+    expect(model.checks[2]!.actual).toBe('75.522°')
+    expect(model.checks[0]!.source).toBe('[alpha] §3')
+  })
+})
+
+describe('tables', () => {
+  it('should tabulate at the steps and always at the dead centres', () => {
+    const { model } = read(
+      '```slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\noffset: 20 mm\nspeed: 60 rpm\n```\n\n```table\nof: drive\nquantities: position, velocity\nevery: 90 deg\n```\n',
+    )
+    const table = model.outcomes[1]!.table!
+    expect(table.columns.map((c) => c.label)).toEqual(['crank angle', 'slider position', 'slider velocity'])
+    expect(table.rows.map((r) => r.marker)).toEqual([null, 'outer dead centre', null, null, 'inner dead centre', null])
+    // At the dead centres the slider stands still.
+    for (const row of table.rows.filter((r) => r.marker)) expect(row.cells[2]).toBe('0')
+    const core = analyseSliderCrank(sliderCrank({ crank: 0.04, rod: 0.16, offset: 0.02 }), { speed: 2 * Math.PI })
+    expect(table.rows[1]!.cells[0]).toBe(((core.outerDeadCentre!.theta * 180) / Math.PI).toPrecision(5))
+  })
+})
+
+describe('assumptions', () => {
+  it('should gather the note’s own first, then each method’s once, flagging those to verify', () => {
+    const { model } = read(
+      '```assumptions\n- Speed is steady. (to verify)\n- {text: Guides are straight, verify: yes}\n- Pins are greased.\n```\n\n```slider-crank #one\ncrank: 40 mm\nrod: 160 mm\nspeed: 60 rpm\n```\n\n```slider-crank #two\ncrank: 40 mm\nrod: 160 mm\nspeed: 60 rpm\n```\n',
+    )
+    expect(model.assumptions.slice(0, 3).map((a) => [a.text, a.verify, a.from])).toEqual([
+      ['Speed is steady.', true, null],
+      ['Guides are straight', true, null],
+      ['Pins are greased.', false, null],
+    ])
+    const rigid = model.assumptions.find((a) => a.text.startsWith('Links are rigid'))!
+    expect(rigid.from).toBe('one, two')
+  })
+})
+
+describe('values in prose', () => {
+  it('should print values with their unit, converted and to the digits asked', () => {
+    const { tree, file } = read(
+      '```slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\noffset: 20 mm\nspeed: 60 rpm\n```\n\nStroke :value[drive.stroke], or :value[drive.stroke]{unit=in digits=3}; ratio :value[drive.time_ratio]; :value[drive.full_rotation]; at 10:30 sharp, see:this.\n',
+    )
+    expect(file.messages).toEqual([])
+    const values: string[] = []
+    const texts: string[] = []
+    const walk = (node: { type: string; children?: unknown[]; text?: string; value?: string }): void => {
+      if (node.type === 'lwValue') values.push(node.text!)
+      if (node.type === 'text') texts.push(node.value!)
+      for (const child of (node.children ?? []) as (typeof node)[]) walk(child)
+    }
+    walk(tree as never)
+    const stroke = analyseSliderCrank(sliderCrank({ crank: 0.04, rod: 0.16, offset: 0.02 }), { speed: 1 }).stroke
+    expect(values).toEqual([`${(stroke * 1000).toPrecision(4)} mm`, `${(stroke / 0.0254).toPrecision(3)} in`, expect.stringMatching(/^1\.0\d\d$/), 'yes'])
+    // Colons that are not directives stay text.
+    expect(texts.join('')).toContain('at 10:30 sharp, see:this.')
+  })
+})

@@ -19,10 +19,10 @@ const root = process.cwd()
 const notes = ['reports/carton-pusher.md', 'reports/sieve-rocker.md'].map((path) => ({ path, text: readFileSync(join(root, path), 'utf8') }))
 const template = readFileSync(join(root, 'templates/package.html'), 'utf8')
 
-function buildAll(): void {
+async function buildAll(): Promise<void> {
   for (const note of notes) {
     const file = new VFile({ path: note.path, value: note.text })
-    const built = buildNote(file, { tool: TOOL, notePath: note.path, template, commit: 'bench' })
+    const built = await buildNote(file, { tool: TOOL, notePath: note.path, template, commit: 'bench' })
     if (!built.html) throw new Error(`${note.path} did not build`)
   }
 }
@@ -40,7 +40,7 @@ function wall(command: string, args: readonly string[]): number {
 
 export async function runPackageBench(): Promise<void> {
   const coldStart = performance.now()
-  buildAll()
+  await buildAll()
   const cold = performance.now() - coldStart
   const warm = await median(buildAll, 9, 2)
   const bare = await median(plainAll, 9, 3)

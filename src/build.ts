@@ -1,13 +1,14 @@
 /**
- * Build one note into its package: read and evaluate (notes layer), render
- * (render layer), and the results document. No file I/O here: the CLI reads
- * and writes.
+ * Build one note into its package: read and evaluate (notes layer), render the
+ * charts (vega, cached by content) and the package (render layer), and the
+ * results document. No file I/O here: the CLI reads and writes.
  */
-import type { ElementContent } from 'hast'
 import type { VFile } from 'vfile'
 import { readNote, type NoteModel, type Tool } from './notes/note.js'
 import { hasErrors } from './notes/report.js'
 import { resultsDocument } from './notes/results-json.js'
+import { chartSpec } from './render/chart-spec.js'
+import { chartSvg, type ChartCache } from './render/chart-svg.js'
 import { renderPackage } from './render/package.js'
 
 /** Options for {@link buildNote}. */
@@ -20,21 +21,26 @@ export interface BuildNoteOptions {
   readonly commit: string
   /** Date of the note's last commit, asked for only when the front matter says `date: git`. */
   readonly gitDate?: (() => string | null) | null
-  /** Extra markup after a block (charts and drawings), given the model. */
-  readonly figures?: ((model: NoteModel) => (index: number) => ElementContent[]) | null
+  /** Where rendered charts are kept between builds. */
+  readonly chartCache?: ChartCache | null
 }
 
-/** A built note: the model, and the HTML and results unless the note has errors. */
+/** A built note: the model, and the HTML, results and chart specs unless the note has errors. */
 export interface BuiltNote {
   readonly model: NoteModel
   readonly html: string | null
   readonly results: unknown
+  /** Extra files of the package by relative path (the charts' vega-lite specs). */
+  readonly files: ReadonlyMap<string, string>
   readonly ok: boolean
   readonly date: string | null
+  /** How many charts were rendered, and how many came from the cache. */
+  readonly charts: { readonly rendered: number; readonly cached: number }
 }
 
 /** Evaluate and render a note. Never throws on a bad note: problems are messages on `file`. */
-export function buildNote(file: VFile, options: BuildNoteOptions): BuiltNote {
+export async function buildNote(file: VFile, options: BuildNoteOptions): Promise<BuiltNote> {
+  // 1. Read and evaluate (the notes layer).
   const { tree, model } = readNote(file, options.tool)
   const date = model.meta.date === 'git' ? (options.gitDate?.() ?? null) : model.meta.date
   if (model.meta.date === 'git' && date === null) {
@@ -42,17 +48,28 @@ export function buildNote(file: VFile, options: BuildNoteOptions): BuiltNote {
       place: { line: 1, column: 1 },
       ruleId: 'front-matter-field',
       source: 'linkwright',
-    })
+    }).fatal = true
   }
   const results = resultsDocument(model, file, options.notePath, date)
-  if (hasErrors(file)) return { model, html: null, results, ok: false, date }
-  const figures = options.figures?.(model)
-  const html = renderPackage(tree, model, file, {
-    template: options.template,
-    notePath: options.notePath,
-    date,
-    commit: options.commit,
-    ...(figures ? { afterBlock: figures } : {}),
-  })
-  return { model, html, results, ok: !hasErrors(file), date }
+  const files = new Map<string, string>()
+  if (hasErrors(file)) return { model, html: null, results, files, ok: false, date, charts: { rendered: 0, cached: 0 } }
+  // 2. Charts: specs from the core's sweeps, SVG from vega (depends on 1).
+  const charts = new Map<number, { svg: string; specFile: string }>()
+  let cached = 0
+  await Promise.all(
+    model.blocks.map(async (block) => {
+      const chart = model.outcomes[block.index]?.chart
+      if (!chart) return
+      const name = block.id ?? `chart-${block.index + 1}`
+      const spec = chartSpec(chart, model.meta.digits)
+      const specFile = `charts/${name}.vl.json`
+      files.set(specFile, `${JSON.stringify(spec, null, 2)}\n`)
+      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache)
+      if (rendered.cached) cached++
+      charts.set(block.index, { svg: rendered.svg, specFile })
+    }),
+  )
+  // 3. The package (depends on 1 and 2).
+  const html = renderPackage(tree, model, file, { template: options.template, notePath: options.notePath, date, commit: options.commit, charts })
+  return { model, html, results, files: new Map([...files].sort(([a], [b]) => a.localeCompare(b))), ok: !hasErrors(file), date, charts: { rendered: charts.size, cached } }
 }

@@ -15,7 +15,8 @@ import { readFileSync, readdirSync } from 'node:fs'
 import { basename, dirname, join, relative } from 'node:path'
 import { VFile } from 'vfile'
 import { COMMIT, TOOL } from '../version.js'
-import { findNotes, packageFolder, writeFolder } from './files.js'
+import type { ChartCache } from '../render/chart-svg.js'
+import { findNotes, packageFolder, writeFileAtomic, writeFolder } from './files.js'
 import { katexDist, templatePath } from './paths.js'
 import { report } from './reporter.js'
 
@@ -39,6 +40,26 @@ function assets(): Map<string, Uint8Array | string> {
     if (font.endsWith('.woff2')) files.set(`assets/katex/fonts/${font}`, readFileSync(join(dist, 'fonts', font)))
   }
   return files
+}
+
+/** Rendered charts kept on disk by content key, so an unchanged chart is not rendered again. */
+function diskCache(folder: string): ChartCache {
+  return {
+    get(key) {
+      try {
+        return readFileSync(join(folder, `${key}.svg`), 'utf8')
+      } catch {
+        return undefined
+      }
+    },
+    set(key, svg) {
+      try {
+        writeFileAtomic(join(folder, `${key}.svg`), svg)
+      } catch {
+        // A cache that cannot be written only costs time.
+      }
+    },
+  }
 }
 
 /** Date of the note's last commit (YYYY-MM-DD), or null. */
@@ -67,6 +88,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
   const { buildNote } = await import('../build.js')
   const template = readFileSync(templatePath('package.html'), 'utf8')
   const shared = assets()
+  const cache = diskCache(join(options.out, '.cache', 'charts'))
   const base = options.paths.length === 1 && !options.paths[0]!.endsWith('.md') ? options.paths[0]! : '.'
   const files: VFile[] = []
   let failed = missing.length > 0
@@ -76,7 +98,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     files.push(file)
     let built
     try {
-      built = buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path) })
+      built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), chartCache: cache })
     } catch (error) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
       file.message(`Cannot build this note: internal error: ${error instanceof Error ? error.message : String(error)}`, {
@@ -96,6 +118,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     const content = new Map(shared)
     content.set('index.html', built.html)
     content.set('results.json', `${JSON.stringify(built.results, null, 2)}\n`)
+    for (const [name, text] of built.files) content.set(name, text)
     writeFolder(folder, content)
     const fails = built.model.checks.filter((c) => !c.passed).length
     if (!options.quiet) {

@@ -33,10 +33,10 @@ export class FourBarSweep {
   readonly couplerPointSpeed: Float64Array
   private readonly state = new Float64Array(FOUR_BAR_STATE)
 
-  /** Allocate the arrays for `count` input angles (≥ 2, ends included). */
+  /** Allocate the arrays for `count` input angles (≥ 1; a range sweep needs ≥ 2, ends included). */
   constructor(linkage: FourBarLinkage, count: number) {
-    if (!Number.isInteger(count) || count < 2) {
-      throw new LinkageError('invalid-number', `A sweep needs a whole number of at least 2 input angles, got ${count}`)
+    if (!Number.isInteger(count) || count < 1) {
+      throw new LinkageError('invalid-number', `A sweep needs a whole number of at least 1 input angle, got ${count}`)
     }
     this.linkage = linkage
     this.count = count
@@ -57,6 +57,7 @@ export class FourBarSweep {
   /** Recompute every array in place for an input range and input motion. Returns this. */
   update(range: AngleRange, motion: CrankMotion): this {
     const { count, inputAngle } = this
+    if (count < 2) throw new LinkageError('invalid-number', `A sweep over a range needs at least 2 input angles, got ${count}`)
     const step = (range.end - range.start) / (count - 1)
     // Angles first, the last one exactly at the end of the range.
     for (let i = 0; i < count; i++) inputAngle[i] = i === count - 1 ? range.end : range.start + i * step

@@ -51,10 +51,10 @@ export class SliderCrankSweep {
   readonly transmissionAngle: Float64Array
   private readonly state = new Float64Array(SLIDER_CRANK_STATE)
 
-  /** Allocate the arrays for `count` crank angles (≥ 2, ends included). */
+  /** Allocate the arrays for `count` crank angles (≥ 1; a range sweep needs ≥ 2, ends included). */
   constructor(linkage: SliderCrankLinkage, count: number) {
-    if (!Number.isInteger(count) || count < 2) {
-      throw new LinkageError('invalid-number', `A sweep needs a whole number of at least 2 crank angles, got ${count}`)
+    if (!Number.isInteger(count) || count < 1) {
+      throw new LinkageError('invalid-number', `A sweep needs a whole number of at least 1 crank angle, got ${count}`)
     }
     this.linkage = linkage
     this.count = count
@@ -72,6 +72,7 @@ export class SliderCrankSweep {
   /** Recompute every array in place for a crank-angle range and crank motion. Returns this. */
   update(range: AngleRange, motion: CrankMotion): this {
     const { count, crankAngle } = this
+    if (count < 2) throw new LinkageError('invalid-number', `A sweep over a range needs at least 2 crank angles, got ${count}`)
     const step = (range.end - range.start) / (count - 1)
     // Angles first, the last one exactly at the end of the range.
     for (let i = 0; i < count; i++) crankAngle[i] = i === count - 1 ? range.end : range.start + i * step

@@ -41,6 +41,8 @@ export const messages = {
     `Cannot read the check \`${text}\`: write \`value >= limit\`, \`value <= limit\` (also \`>\`, \`<\`) or \`value = target ± tolerance\``,
   'check-not-evaluable': (text: string, detail: string) => `Cannot evaluate the check \`${text}\`: ${detail}`,
   'table-syntax': (detail: string) => `Cannot build the table: ${detail}`,
+  'chart-syntax': (detail: string) => `Cannot build the chart: ${detail}`,
+  'drawing-syntax': (detail: string) => `Cannot build the drawing: ${detail}`,
   'unknown-quantity': (name: string, kind: string, known: readonly string[]) =>
     `Unexpected quantity \`${name}\` for a ${kind}, expected one of ${list(known)}`,
   'linkage-error': (detail: string) => detail,

@@ -8,6 +8,7 @@ import type { BlockOutcome } from '../notes/block-kinds/kind.js'
 import { displayValue } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
+import { animationSvg, drawingSvg } from './drawing-svg.js'
 import { texNode } from './equation.js'
 import { table, verdict, withCitations, type ReferenceNumbers } from './markup.js'
 
@@ -17,6 +18,8 @@ export interface RenderContext {
   readonly references: ReferenceNumbers
   /** Assumption text → its number (A1, A2 …). */
   readonly assumptionNumbers: ReadonlyMap<string, string>
+  /** Rendered chart SVG by block index, and where its spec was written. */
+  readonly charts: ReadonlyMap<number, { readonly svg: string; readonly specFile: string }>
 }
 
 /** Render one block's outcome; a block with errors shows its source and a note. */
@@ -42,6 +45,8 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   }
   if (outcome.checks.length > 0) parts.push(checksTable(outcome, context))
   if (outcome.table) parts.push(sweepTable(outcome, context))
+  if (outcome.chart) parts.push(chartFigure(block, outcome, context))
+  if (outcome.drawing) parts.push(drawingFigure(block, outcome))
   if (block.kind === 'assumptions') {
     parts.push(
       h(
@@ -191,4 +196,39 @@ function sweepTable(outcome: BlockOutcome, context: RenderContext): Element {
       (i) => (t.rows[i]!.marker ? 'lw-row-marker' : null),
     ),
   ])
+}
+
+function raw(value: string): ElementContent {
+  return { type: 'raw', value } as unknown as ElementContent
+}
+
+function chartFigure(block: CalcBlock, outcome: BlockOutcome, context: RenderContext): Element {
+  const chart = outcome.chart!
+  const rendered = context.charts.get(block.index)
+  const what = `${chart.series.map((s) => s.label).join(', ')} against ${chart.x.label} for #${chart.of}`
+  const label = `Chart: ${chart.title ? `${chart.title}: ` : ''}${what}${chart.limit ? `; limit ${chart.limit.sense} ${chart.limit.value}` : ''}`
+  return h('figure.lw-figure.lw-chart', [
+    rendered ? raw(rendered.svg.replace(/^<svg /, `<svg role="img" aria-label="${escapeAttribute(label)}" `)) : h('p.lw-error', 'Chart not rendered.'),
+    h('figcaption', [
+      `${what}; ${chart.samples} points of the core’s sweep`,
+      chart.markers.length > 0 ? '; dashed rules at the dead centres, toggles and limits' : '',
+      chart.limit ? `; the limit (${chart.limit.sense}) in red, with the stretch that breaks it shaded` : '',
+      rendered ? ['. Vega-lite spec: ', h('a', { href: rendered.specFile }, h('code', rendered.specFile))] : '',
+    ]),
+  ])
+}
+
+function drawingFigure(block: CalcBlock, outcome: BlockOutcome): Element {
+  const drawing = outcome.drawing!
+  const id = `drawing-${block.id ?? block.index + 1}`
+  const animation = animationSvg(drawing, `${id}-animation`)
+  return h('figure.lw-figure.lw-drawing', [
+    raw(drawingSvg(drawing, id)),
+    animation ? h('div.lw-animation', [h('p.lw-step-note', 'Animation over one cycle (screen only):'), raw(animation)]) : null,
+    h('figcaption', `${drawing.description}. Drawn to scale from the core’s joint positions; the scale bar gives the scale.`),
+  ])
+}
+
+function escapeAttribute(value: string): string {
+  return value.replace(/&/g, '&amp;').replace(/"/g, '&quot;').replace(/</g, '&lt;')
 }

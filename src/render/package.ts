@@ -40,8 +40,8 @@ export interface RenderOptions {
   readonly date: string | null
   /** Revision of the tool's source, e.g. a commit id. */
   readonly commit: string
-  /** Extra markup after a block (charts, drawings), by block index. */
-  readonly afterBlock?: (index: number) => ElementContent[]
+  /** Rendered chart SVG by block index, and the file its spec was written to. */
+  readonly charts?: ReadonlyMap<number, { readonly svg: string; readonly specFile: string }>
 }
 
 // User HTML may keep GitHub-like markup and math classes, plus our placeholders; nothing else.
@@ -69,6 +69,7 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
     model,
     references: new Map(model.references.map((r) => [r.key, r])),
     assumptionNumbers: new Map(model.assumptions.map((a, i) => [a.text, `A${i + 1}`])),
+    charts: options.charts ?? new Map(),
   }
   // 2. Markdown → hast, our nodes as slots (depends on 1 for citations).
   const slots: ElementContent[][] = []
@@ -79,7 +80,7 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
   const handlers: Record<string, Handler> = {
     lwBlock: (_state, node: BlockNode) => {
       const block = model.blocks[node.index]!
-      return slot([renderBlock(block, model.outcomes[node.index] ?? null, context), ...(options.afterBlock?.(node.index) ?? [])])
+      return slot([renderBlock(block, model.outcomes[node.index] ?? null, context)])
     },
     lwValue: (_state, node: ValueNode) => slot([h('span.lw-value', { title: node.expression }, node.text)]),
     lwCite: (_state, node: CiteNode) => {

@@ -19,10 +19,10 @@ references:
 `
 
 /** Build a note given as text (front matter added unless it has its own). */
-export function build(markdown: string, path = 'test.md'): { file: VFile; built: BuiltNote } {
+export async function build(markdown: string, path = 'test.md'): Promise<{ file: VFile; built: BuiltNote }> {
   const value = markdown.startsWith('---') ? markdown : FRONT + markdown
   const file = new VFile({ path, value })
-  const built = buildNote(file, { tool: TOOL, notePath: path, template, commit: 'test' })
+  const built = await buildNote(file, { tool: TOOL, notePath: path, template, commit: 'test' })
   return { file, built }
 }
 

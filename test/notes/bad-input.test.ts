@@ -10,8 +10,8 @@ const crank = (body: string, id = 'drive') => `\`\`\`slider-crank #${id}\n${body
 const base = 'rod: 150 mm\nspeed: 60 rpm'
 
 /** The only error of a note: [line, column, rule id, reason]. */
-function onlyError(markdown: string): [number | undefined, number | undefined, string | undefined, string] {
-  const { file, built } = build(markdown)
+async function onlyError(markdown: string): Promise<[number | undefined, number | undefined, string | undefined, string]> {
+  const { file, built } = await build(markdown)
   const errors = file.messages.filter((m) => m.fatal === true)
   expect(built.ok).toBe(false)
   expect(built.html).toBeNull()
@@ -21,82 +21,82 @@ function onlyError(markdown: string): [number | undefined, number | undefined, s
 }
 
 describe('bad input', () => {
-  it('should place malformed front matter YAML', () => {
-    const [line, , rule] = onlyError('---\ntitle: [unclosed\nnumber: X\n---\n\nText.\n')
+  it('should place malformed front matter YAML', async () => {
+    const [line, , rule] = await onlyError('---\ntitle: [unclosed\nnumber: X\n---\n\nText.\n')
     expect(rule).toBe('front-matter-syntax')
     // The YAML parser notices the unclosed list on the next line.
     expect(line).toBe(3)
   })
 
-  it('should place malformed YAML inside a block at its line in the note', () => {
-    const [line, , rule] = onlyError(crank(`crank: 40 mm\n${base}\nbad: [unclosed`))
+  it('should place malformed YAML inside a block at its line in the note', async () => {
+    const [line, , rule] = await onlyError(crank(`crank: 40 mm\n${base}\nbad: [unclosed`))
     expect(rule).toBe('block-syntax')
     expect(line).toBe(BODY_LINE + 4)
   })
 
-  it('should refuse an unknown block kind that carries an id', () => {
-    expect(onlyError('```slidercrank #drive\ncrank: 40 mm\n```\n')).toEqual([
+  it('should refuse an unknown block kind that carries an id', async () => {
+    expect(await onlyError('```slidercrank #drive\ncrank: 40 mm\n```\n')).toEqual([
       BODY_LINE,
       1,
       'unknown-block-kind',
-      messages['unknown-block-kind']('slidercrank', ['given', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'assumptions']),
+      messages['unknown-block-kind']('slidercrank', ['given', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
     ])
   })
 
-  it('should leave ordinary code blocks alone', () => {
-    const { file, built } = build('```js\nconsole.log(1)\n```\n')
+  it('should leave ordinary code blocks alone', async () => {
+    const { file, built } = await build('```js\nconsole.log(1)\n```\n')
     expect(file.messages).toEqual([])
     expect(built.html).toContain('console.log(1)')
   })
 
-  it('should name an unknown input and list the known ones', () => {
-    const [line, column, rule, reason] = onlyError(crank(`crank_radius: 40 mm\n${base}\ncrank: 40 mm`))
+  it('should name an unknown input and list the known ones', async () => {
+    const [line, column, rule, reason] = await onlyError(crank(`crank_radius: 40 mm\n${base}\ncrank: 40 mm`))
     expect([line, column, rule]).toEqual([BODY_LINE + 1, 1, 'unknown-input'])
     expect(reason).toMatch(/^Unexpected input `crank_radius` for a slider-crank block, expected one of `crank`, `rod`/)
   })
 
-  it('should refuse a force where a length belongs', () => {
-    const [line, column, rule, reason] = onlyError(crank(`crank: 40 N\n${base}`))
+  it('should refuse a force where a length belongs', async () => {
+    const [line, column, rule, reason] = await onlyError(crank(`crank: 40 N\n${base}`))
     expect([line, column, rule]).toEqual([BODY_LINE + 1, 8, 'dimension-mismatch'])
     expect(reason).toBe(messages['dimension-mismatch']('crank', 'crank radius', 'expected a length (45 mm, 1.75 in), got a force (40 N)'))
   })
 
-  it('should refuse a bare number where a length belongs', () => {
-    const [, , rule, reason] = onlyError(crank(`crank: 40\n${base}`))
+  it('should refuse a bare number where a length belongs', async () => {
+    const [, , rule, reason] = await onlyError(crank(`crank: 40\n${base}`))
     expect(rule).toBe('dimension-mismatch')
     expect(reason).toContain('with a unit')
   })
 
-  it('should refuse a frequency where a rotational speed belongs, and say how to write it', () => {
-    const [, , rule, reason] = onlyError(crank('crank: 40 mm\nrod: 150 mm\nspeed: 2 Hz'))
+  it('should refuse a frequency where a rotational speed belongs, and say how to write it', async () => {
+    const [, , rule, reason] = await onlyError(crank('crank: 40 mm\nrod: 150 mm\nspeed: 2 Hz'))
     expect(rule).toBe('dimension-mismatch')
     expect(reason).toContain('write a rotational speed as rpm, rad/s or cycle/s')
   })
 
-  it('should refuse a negative length in the engineer’s words', () => {
-    const [line, , rule, reason] = onlyError(crank(`crank: -40 mm\n${base}`))
+  it('should refuse a negative length in the engineer’s words', async () => {
+    const [line, , rule, reason] = await onlyError(crank(`crank: -40 mm\n${base}`))
     expect([line, rule]).toEqual([BODY_LINE, 'linkage-error'])
     expect(reason).toBe('The crank length must be greater than zero, got -40 mm (invalid-length)')
   })
 
-  it('should refuse a linkage that cannot assemble', () => {
-    const [, , rule, reason] = onlyError(crank('crank: 20 mm\nrod: 50 mm\noffset: 80 mm\nspeed: 60 rpm'))
+  it('should refuse a linkage that cannot assemble', async () => {
+    const [, , rule, reason] = await onlyError(crank('crank: 20 mm\nrod: 50 mm\noffset: 80 mm\nspeed: 60 rpm'))
     expect(rule).toBe('linkage-error')
     expect(reason).toContain('cannot reach the slider path at any crank angle: the offset (80 mm) exceeds crank + rod = 70 mm')
   })
 
-  it('should refuse an unknown reference key in a source', () => {
-    const [line, , rule, reason] = onlyError(crank(`crank: 40 mm ; [nope] item 3\n${base}`))
+  it('should refuse an unknown reference key in a source', async () => {
+    const [line, , rule, reason] = await onlyError(crank(`crank: 40 mm ; [nope] item 3\n${base}`))
     expect([line, rule, reason]).toEqual([BODY_LINE + 1, 'unknown-reference', messages['unknown-reference']('nope')])
   })
 
-  it('should refuse an unknown reference key in prose', () => {
-    const [line, column, rule] = onlyError('As :cite[nope] says.\n')
+  it('should refuse an unknown reference key in prose', async () => {
+    const [line, column, rule] = await onlyError('As :cite[nope] says.\n')
     expect([line, column, rule]).toEqual([BODY_LINE, 4, 'unknown-reference'])
   })
 
-  it('should report a cycle between blocks at each block', () => {
-    const { file } = build(
+  it('should report a cycle between blocks at each block', async () => {
+    const { file } = await build(
       `${crank('crank: 40 mm\nrod: lower.rod\nspeed: 60 rpm', 'upper')}\n${crank('crank: 40 mm\nrod: upper.rod\nspeed: 60 rpm', 'lower')}`,
     )
     const cycles = file.messages.filter((m) => m.ruleId === 'dependency-cycle')
@@ -105,69 +105,69 @@ describe('bad input', () => {
     expect(file.messages.map((m) => m.ruleId)).toEqual(['dependency-cycle', 'dependency-cycle'])
   })
 
-  it('should refuse a check that compares a length with an angle', () => {
-    const [line, , rule, reason] = onlyError(`${crank(`crank: 40 mm\n${base}`)}\n\`\`\`checks\nodd: drive.stroke >= 40 deg\n\`\`\`\n`)
+  it('should refuse a check that compares a length with an angle', async () => {
+    const [line, , rule, reason] = await onlyError(`${crank(`crank: 40 mm\n${base}`)}\n\`\`\`checks\nodd: drive.stroke >= 40 deg\n\`\`\`\n`)
     expect([line, rule]).toEqual([BODY_LINE + 7, 'check-not-evaluable'])
     expect(reason).toContain('it compares a length (80 mm) with an angle (40 deg)')
   })
 
-  it('should refuse a check that is not a comparison', () => {
-    const [, , rule, reason] = onlyError(`${crank(`crank: 40 mm\n${base}`)}\n\`\`\`checks\nodd: drive.stroke\n\`\`\`\n`)
+  it('should refuse a check that is not a comparison', async () => {
+    const [, , rule, reason] = await onlyError(`${crank(`crank: 40 mm\n${base}`)}\n\`\`\`checks\nodd: drive.stroke\n\`\`\`\n`)
     expect(rule).toBe('check-syntax')
     expect(reason).toBe(messages['check-syntax']('drive.stroke'))
   })
 
-  it('should refuse an unknown block id in an expression', () => {
-    const [line, , rule, reason] = onlyError(crank('crank: 40 mm\nrod: 4 * other.crank\nspeed: 60 rpm'))
+  it('should refuse an unknown block id in an expression', async () => {
+    const [line, , rule, reason] = await onlyError(crank('crank: 40 mm\nrod: 4 * other.crank\nspeed: 60 rpm'))
     expect([line, rule]).toEqual([BODY_LINE + 2, 'unknown-block'])
     expect(reason).toContain('`other` is neither a unit, a function, an input of this block nor a block id')
   })
 
-  it('should refuse an unknown result and list the known ones', () => {
-    const [, , rule, reason] = onlyError(`${crank(`crank: 40 mm\n${base}`)}\n${crank('crank: drive.strok / 2\nrod: 150 mm\nspeed: 60 rpm', 'follower')}`)
+  it('should refuse an unknown result and list the known ones', async () => {
+    const [, , rule, reason] = await onlyError(`${crank(`crank: 40 mm\n${base}`)}\n${crank('crank: drive.strok / 2\nrod: 150 mm\nspeed: 60 rpm', 'follower')}`)
     expect(rule).toBe('unknown-result')
     expect(reason).toMatch(/^Cannot find `strok` in block `drive`, expected one of `crank`, `rod`/)
   })
 
-  it('should report a missing input at the block', () => {
-    const [line, column, rule, reason] = onlyError(crank('crank: 40 mm\nspeed: 60 rpm'))
+  it('should report a missing input at the block', async () => {
+    const [line, column, rule, reason] = await onlyError(crank('crank: 40 mm\nspeed: 60 rpm'))
     expect([line, column, rule, reason]).toEqual([BODY_LINE, 1, 'missing-input', messages['missing-input']('rod', 'connecting-rod length (pin centres)', 'slider-crank')])
   })
 
-  it('should refuse definitions, imports and file access in expressions', () => {
+  it('should refuse definitions, imports and file access in expressions', async () => {
     for (const expression of ['f(x) = x', 'import({})', 'evaluate("1")', 'ones(3000, 3000)', 'a = 3']) {
-      const { file } = build(crank(`crank: ${expression}\n${base}`))
+      const { file } = await build(crank(`crank: ${expression}\n${base}`))
       expect(file.messages.filter((m) => m.fatal === true).map((m) => m.ruleId)).toEqual(['invalid-expression'])
     }
   })
 
-  it('should refuse duplicate and unusable block ids', () => {
-    expect(onlyError(`${crank(`crank: 40 mm\n${base}`)}\n${crank(`crank: 40 mm\n${base}`)}`)[2]).toBe('duplicate-block-id')
-    expect(onlyError(crank(`crank: 40 mm\n${base}`, 'mm'))[2]).toBe('invalid-block-id')
-    expect(onlyError(crank(`crank: 40 mm\n${base}`, 'sqrt'))[2]).toBe('invalid-block-id')
+  it('should refuse duplicate and unusable block ids', async () => {
+    expect((await onlyError(`${crank(`crank: 40 mm\n${base}`)}\n${crank(`crank: 40 mm\n${base}`)}`))[2]).toBe('duplicate-block-id')
+    expect((await onlyError(crank(`crank: 40 mm\n${base}`, 'mm')))[2]).toBe('invalid-block-id')
+    expect((await onlyError(crank(`crank: 40 mm\n${base}`, 'sqrt')))[2]).toBe('invalid-block-id')
     // `second` is a unit (s): as an id it would shadow the unit in every expression.
-    expect(onlyError(crank(`crank: 40 mm\n${base}`, 'second'))[3]).toBe(messages['invalid-block-id']('second', 'it is the name of a unit'))
+    expect((await onlyError(crank(`crank: 40 mm\n${base}`, 'second')))[3]).toBe(messages['invalid-block-id']('second', 'it is the name of a unit'))
   })
 
-  it('should refuse a choice word it does not know', () => {
-    const [, , rule, reason] = onlyError(crank(`crank: 40 mm\n${base}\nrotation: clockwise`))
+  it('should refuse a choice word it does not know', async () => {
+    const [, , rule, reason] = await onlyError(crank(`crank: 40 mm\n${base}\nrotation: clockwise`))
     expect(rule).toBe('invalid-choice')
     expect(reason).toBe(messages['invalid-choice']('rotation', 'clockwise', ['ccw', 'cw']))
   })
 
-  it('should report missing front matter fields and a bad status', () => {
-    const { file } = build('---\ntitle: Only a title\nstatus: finished\n---\n\nText.\n')
+  it('should report missing front matter fields and a bad status', async () => {
+    const { file } = await build('---\ntitle: Only a title\nstatus: finished\n---\n\nText.\n')
     expect(file.messages.map((m) => m.ruleId).sort()).toEqual(['front-matter-field', 'missing-front-matter'])
   })
 
-  it('should refuse a checker who is also the preparer', () => {
-    const { file } = build('---\ntitle: T\nnumber: N\nrevision: A\nstatus: draft\npeople:\n  prepared: A. Person\n  checked: A. Person\n---\n')
+  it('should refuse a checker who is also the preparer', async () => {
+    const { file } = await build('---\ntitle: T\nnumber: N\nrevision: A\nstatus: draft\npeople:\n  prepared: A. Person\n  checked: A. Person\n---\n')
     expect(file.messages.map((m) => m.reason)).toEqual([
       'Unexpected front matter `people`: the checker must be someone other than the preparer (both are A. Person)',
     ])
   })
 
-  it('should skip blocks that use a block with errors, and still evaluate the others', () => {
+  it('should skip blocks that use a block with errors, and still evaluate the others', async () => {
     const { file, model } = read(`${crank('crank: 40 N\nrod: 150 mm\nspeed: 60 rpm', 'bad')}\n${crank('crank: bad.crank\nrod: 150 mm\nspeed: 60 rpm', 'user')}\n${crank(`crank: 30 mm\n${base}`, 'fine')}`)
     expect(file.messages.filter((m) => m.fatal === true).map((m) => m.ruleId)).toEqual(['dimension-mismatch', 'depends-on-error'])
     expect(model.outcomes.map((o) => o !== null)).toEqual([false, false, true])

@@ -7,7 +7,9 @@ import type { Element } from 'hast'
 import { fromHtml } from 'hast-util-from-html'
 import { toString } from 'hast-util-to-string'
 import { visit } from 'unist-util-visit'
-import { describe, expect, it } from 'vitest'
+import type { VFile } from 'vfile'
+import { beforeAll, describe, expect, it } from 'vitest'
+import type { BuiltNote } from '../../src/build.js'
 import { analyseSliderCrank, sliderCrank } from '../../src/linkage/index.js'
 import { formatNumber } from '../../src/notes/display.js'
 import { build } from '../helpers/note.js'
@@ -31,8 +33,13 @@ function byId(html: string, id: string): Element | null {
 }
 
 describe('package sections', () => {
-  const { built, file } = build(demo, 'reports/carton-pusher.md')
-  const html = built.html!
+  let built: BuiltNote
+  let file: VFile
+  let html: string
+  beforeAll(async () => {
+    ;({ built, file } = await build(demo, 'reports/carton-pusher.md'))
+    html = built.html!
+  })
 
   it('should build the demo note without errors', () => {
     expect(file.messages.filter((m) => m.fatal)).toEqual([])
@@ -90,18 +97,18 @@ describe('package sections', () => {
 })
 
 describe('determinism', () => {
-  it('should give byte-identical packages for the same note', () => {
-    const one = build(demo, 'reports/carton-pusher.md')
-    const two = build(demo, 'reports/carton-pusher.md')
+  it('should give byte-identical packages for the same note', async () => {
+    const one = await build(demo, 'reports/carton-pusher.md')
+    const two = await build(demo, 'reports/carton-pusher.md')
     expect(two.built.html).toBe(one.built.html)
     expect(JSON.stringify(two.built.results)).toBe(JSON.stringify(one.built.results))
   })
 
-  it('should change the fingerprint when any character of the note changes', () => {
-    const one = build(demo).built.model.fingerprint
-    const two = build(demo.replace('crank: 38 mm', 'crank: 38.0 mm')).built.model.fingerprint
+  it('should change the fingerprint when any character of the note changes', async () => {
+    const one = (await build(demo)).built.model.fingerprint
+    const two = (await build(demo.replace('crank: 38 mm', 'crank: 38.0 mm'))).built.model.fingerprint
     expect(two).not.toBe(one)
-    expect(build(demo.replace(/\n/g, '\r\n')).built.model.fingerprint).toBe(one)
+    expect((await build(demo.replace(/\n/g, '\r\n'))).built.model.fingerprint).toBe(one)
   })
 })
 
@@ -120,8 +127,10 @@ describe('sanitising', () => {
     'Math stays: $\\mu = \\arccos(a/b)$.',
     '',
   ].join('\n')
-  const { built } = build(note)
-  const html = built.html!
+  let html: string
+  beforeAll(async () => {
+    html = (await build(note)).built.html!
+  })
 
   it('should drop scripts, handlers, javascript: links, frames and styles from the note’s HTML', () => {
     expect(html).not.toMatch(/<script/i)

@@ -2,7 +2,7 @@
  * `four-bar` blocks: Grashof class, transmission angle, toggles, output swing and
  * time ratio, output velocity and acceleration, and a coupler-point path.
  */
-import { FourBarSweep, analyseFourBar, fourBar, type FourBarAnalysis } from '../../linkage/index.js'
+import { FOUR_BAR_STATE, FourBarSweep, THETA3, analyseFourBar, fourBar, solveFourBar, type FourBarAnalysis } from '../../linkage/index.js'
 import { displayUnit, formatNumber, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
 import { fromSI } from '../quantity.js'
@@ -220,7 +220,37 @@ function fourBarSweep(analysis: FourBarAnalysis): SweepSource {
         ]
       : []),
   ]
+  const state = new Float64Array(FOUR_BAR_STATE)
   return {
+    peaks: {
+      output_angular_velocity: { ...analysis.peakOutputVelocity, label: 'peak' },
+      output_angular_acceleration: { ...analysis.peakOutputAcceleration, label: 'peak' },
+      transmission_angle: { ...analysis.transmissionMin, label: 'least' },
+    },
+    geometry: {
+      kind: 'four-bar',
+      pivots: [
+        [0, 0],
+        [linkage.groundX, linkage.groundY],
+      ],
+      path: null,
+      rotation: linkage.rotation,
+      crank: linkage.input,
+      pose(theta) {
+        if (!solveFourBar(linkage.input, linkage.coupler, linkage.output, linkage.groundX, linkage.groundY, linkage.circuitSign, theta, state)) return null
+        const ax = linkage.input * Math.cos(theta)
+        const ay = linkage.input * Math.sin(theta)
+        const t3 = state[THETA3]!
+        const points: Record<string, readonly [number, number]> = {
+          O: [0, 0],
+          A: [ax, ay],
+          B: [ax + linkage.coupler * Math.cos(t3), ay + linkage.coupler * Math.sin(t3)],
+          O4: [linkage.groundX, linkage.groundY],
+        }
+        if (point) points.P = [ax + point.distance * Math.cos(t3 + point.angle), ay + point.distance * Math.sin(t3 + point.angle)]
+        return points
+      },
+    },
     angleLabel: 'input angle',
     start: analysis.range.start,
     end: analysis.range.end,

@@ -3,6 +3,8 @@
  * means adding its file and one line here (see DEVELOPERS.md).
  */
 import { assumptionsKind } from './assumptions.js'
+import { chartKind } from './chart.js'
+import { drawingKind } from './drawing.js'
 import { checksKind } from './checks.js'
 import { eccentricKind } from './eccentric.js'
 import { fourBarKind } from './four-bar.js'
@@ -13,7 +15,7 @@ import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [givenKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, assumptionsKind].map((k) => [k.name, k]),
+  [givenKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

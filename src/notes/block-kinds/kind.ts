@@ -42,6 +42,23 @@ export interface AngleMarker {
   readonly theta: number
 }
 
+/** A point in the linkage's frame, m. */
+export type Point2 = readonly [number, number]
+
+/** Where the joints are, for drawings. */
+export interface LinkageGeometry {
+  readonly kind: 'slider-crank' | 'four-bar'
+  /** Joint positions at an input angle (O, A, B; four-bar also O4 and P), or null where it cannot assemble. */
+  pose(theta: number): Readonly<Record<string, Point2>> | null
+  /** Fixed pivots: the crank axis O, and O4 for a four-bar. */
+  readonly pivots: readonly Point2[]
+  /** Slider path of a slider-crank. */
+  readonly path: { readonly type: 'line'; readonly y: number } | { readonly type: 'arc'; readonly cx: number; readonly cy: number; readonly radius: number } | null
+  readonly rotation: 1 | -1
+  /** Crank (input) radius, m. */
+  readonly crank: number
+}
+
 /** Swept values of a linkage block, for tables and charts (columns in SI). */
 export interface SweepSource {
   /** 'crank angle' or 'input angle'. */
@@ -54,6 +71,9 @@ export interface SweepSource {
   readonly markers: readonly AngleMarker[]
   /** Values at the given angles, one Float64Array per quantity name. */
   at(angles: Float64Array): Record<string, Float64Array>
+  readonly geometry: LinkageGeometry
+  /** Exact extremes the analysis found, by quantity name (e.g. the peak velocity), rad and SI. */
+  readonly peaks: Readonly<Record<string, { readonly theta: number; readonly value: number; readonly label: string }>>
 }
 
 /** A check's outcome. */
@@ -83,6 +103,88 @@ export interface TableOutcome {
   readonly rows: readonly { readonly cells: readonly string[]; readonly marker: string | null }[]
 }
 
+/** One series of a chart, in display units. */
+export interface ChartSeries {
+  readonly name: string
+  readonly label: string
+  readonly kind: QuantityKind
+  /** Unit label as printed, e.g. "m/s²". */
+  readonly unit: string
+  readonly values: Float64Array
+}
+
+/** A chart's content: the core's sweep in display units, with its marks. */
+export interface ChartOutcome {
+  readonly of: string
+  readonly title: string | null
+  readonly x: { readonly name: string; readonly label: string; readonly unit: string; readonly kind: QuantityKind; readonly values: Float64Array }
+  readonly series: readonly ChartSeries[]
+  readonly layout: 'stacked' | 'overlaid'
+  /** Dead centres, toggles and limits along the x axis. */
+  readonly markers: readonly { readonly label: string; readonly x: number }[]
+  /** A limit line on one series (both signs when symmetric), and which side of it passes. */
+  readonly limit: {
+    readonly sense: 'at least' | 'at most'
+    readonly value: number
+    readonly symmetric: boolean
+    readonly series: string
+    readonly source: string | null
+  } | null
+  /** The analysis's exact extremes on each series (display units), labelled. */
+  readonly peaks: readonly { readonly series: string; readonly x: number; readonly y: number; readonly label: string }[]
+  readonly width: number
+  readonly height: number
+  readonly xRange: readonly [number, number] | null
+  readonly yRange: readonly [number, number] | null
+  /** Same scale on both axes (a path drawn to scale). */
+  readonly equalAspect: boolean
+  readonly samples: number
+}
+
+/** A pose to draw: the joints at one input angle. */
+export interface DrawnPose {
+  readonly label: string
+  readonly theta: number
+  /** Ghosted (dead centres, toggles) or solid (the pose the drawing is about). */
+  readonly ghost: boolean
+  readonly points: Readonly<Record<string, Point2>>
+}
+
+/** A linear dimension between two points, drawn offset from them. */
+export interface Dimension {
+  readonly from: Point2
+  readonly to: Point2
+  /** Which way, perpendicular to from→to, the dimension line sits. */
+  readonly side: 1 | -1
+  /** Value in SI, and the text printed ("S = 80.01 mm"). */
+  readonly si: number
+  readonly text: string
+  readonly role: string
+}
+
+/** A to-scale kinematic sketch of a linkage block, in SI coordinates. */
+export interface DrawingOutcome {
+  readonly of: string
+  readonly title: string | null
+  readonly geometry: LinkageGeometry
+  readonly poses: readonly DrawnPose[]
+  readonly dimensions: readonly Dimension[]
+  /** Output swing of a four-bar: centre, radius, start and end angles, text. */
+  readonly swing: { readonly centre: Point2; readonly from: number; readonly to: number; readonly text: string } | null
+  /** Coupler-point path of a four-bar (x, y pairs), or null. */
+  readonly couplerPath: Float64Array | null
+  /** Poses over one cycle for the animation (screen only), or null. */
+  readonly frames: readonly Readonly<Record<string, Point2>>[] | null
+  /** Seconds per animation cycle. */
+  readonly period: number
+  /** Scale-bar length, m, and its text. */
+  readonly scaleBar: { readonly length: number; readonly text: string }
+  readonly width: number
+  readonly height: number
+  /** Words describing the drawing, for its text alternative. */
+  readonly description: string
+}
+
 /** An assumption with its origin. */
 export interface Assumption {
   readonly text: string
@@ -107,6 +209,8 @@ export interface BlockOutcome {
   readonly sweep: SweepSource | null
   readonly checks: readonly CheckOutcome[]
   readonly table: TableOutcome | null
+  readonly chart: ChartOutcome | null
+  readonly drawing: DrawingOutcome | null
 }
 
 /** A block kind. */
@@ -136,6 +240,8 @@ export function outcome(block: CalcBlock, kindLabel: string, parts: Partial<Bloc
     sweep: null,
     checks: [],
     table: null,
+    chart: null,
+    drawing: null,
     ...parts,
   }
 }

@@ -4,13 +4,13 @@
  * assumptions and the sweep for tables and charts. Shared by the slider-crank
  * and eccentric kinds.
  */
-import { SliderCrankSweep, type SliderCrankAnalysis } from '../../linkage/index.js'
+import { ROD_ANGLE, SLIDER_CRANK_STATE, SliderCrankSweep, sliderCrankState, type SliderCrankAnalysis } from '../../linkage/index.js'
 import { displayUnit, formatNumber, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
 import { fromSI } from '../quantity.js'
 import { reportWarning } from '../report.js'
 import type { CalcBlock, InputValue, MethodStep, NamedValue } from '../types.js'
-import type { Assumption, AngleMarker, EvaluationContext, SweepSource } from './kind.js'
+import type { Assumption, AngleMarker, EvaluationContext, LinkageGeometry, SweepSource } from './kind.js'
 import { flag, quantity, tex, texBare } from './values.js'
 
 /** The least transmission angle commonly accepted (common practice; criterion after Alt, 1932). */
@@ -258,6 +258,12 @@ export function sliderCrankSweep(analysis: SliderCrankAnalysis): SweepSource {
   }
   markers.sort((p, q) => p.theta - q.theta)
   return {
+    geometry: sliderCrankGeometry(analysis),
+    peaks: {
+      velocity: { ...analysis.peakVelocity, label: 'peak' },
+      acceleration: { ...analysis.peakAcceleration, label: 'peak' },
+      transmission_angle: { ...analysis.transmissionMin, label: 'least' },
+    },
     angleLabel: 'crank angle',
     start: analysis.range.start,
     end: analysis.range.end,
@@ -288,6 +294,27 @@ export function sliderCrankSweep(analysis: SliderCrankAnalysis): SweepSource {
         transmission_angle: sweep.transmissionAngle,
         time: sweep.time,
       }
+    },
+  }
+}
+
+/** Joint positions of a slider-crank: crank axis O, crank pin A, slider pin B. */
+function sliderCrankGeometry(analysis: SliderCrankAnalysis): LinkageGeometry {
+  const { linkage } = analysis
+  const state = new Float64Array(SLIDER_CRANK_STATE)
+  const fb = linkage.equivalentFourBar
+  return {
+    kind: 'slider-crank',
+    pivots: [[0, 0]],
+    path: fb ? { type: 'arc', cx: fb.groundX, cy: fb.groundY, radius: fb.output } : { type: 'line', y: linkage.offset },
+    rotation: linkage.rotation,
+    crank: linkage.crank,
+    pose(theta) {
+      if (!sliderCrankState(linkage, theta, state)) return null
+      const ax = linkage.crank * Math.cos(theta)
+      const ay = linkage.crank * Math.sin(theta)
+      const phi = state[ROD_ANGLE]!
+      return { O: [0, 0], A: [ax, ay], B: [ax + linkage.rod * Math.cos(phi), ay + linkage.rod * Math.sin(phi)] }
     },
   }
 }

@@ -1,0 +1,224 @@
+/**
+ * A chart outcome as a vega-lite spec: one layered panel per series (stacked)
+ * or one panel for all (overlaid), with rules at the dead centres, the peaks
+ * labelled, a limit line and the stretch that breaks it shaded. The style is
+ * ours: muted ink, one accent, dashes as well as colours so that the chart reads
+ * in black-and-white print and for colour-blind readers.
+ */
+import type { ChartOutcome, ChartSeries } from '../notes/block-kinds/kind.js'
+import { formatNumber } from '../notes/display.js'
+
+/** Series colours and dash patterns, in order. */
+export const SERIES_STYLE: readonly { readonly color: string; readonly dash: readonly number[] }[] = [
+  { color: '#0b5563', dash: [1, 0] },
+  { color: '#b5471b', dash: [7, 3] },
+  { color: '#5b3f8c', dash: [2, 2.5] },
+  { color: '#5f6b00', dash: [9, 3, 2, 3] },
+]
+
+const FONT = 'DejaVu Sans, Liberation Sans, Arial, sans-serif'
+const LIMIT_COLOR = '#a11d21'
+const MARKER_COLOR = '#4d5962'
+
+/** The style every chart shares. */
+export const CHART_CONFIG = {
+  font: FONT,
+  background: 'white',
+  padding: 6,
+  view: { stroke: '#9aa5ad', strokeWidth: 0.75 },
+  axis: {
+    labelFontSize: 10,
+    titleFontSize: 10.5,
+    titleFontWeight: 'normal',
+    labelColor: '#1c2226',
+    titleColor: '#1c2226',
+    gridColor: '#e3e7ea',
+    gridWidth: 0.6,
+    domainColor: '#4d5962',
+    tickColor: '#4d5962',
+  },
+  legend: { orient: 'top', labelFontSize: 10, title: null, symbolStrokeWidth: 2, symbolSize: 260, symbolType: 'stroke' },
+  line: { strokeWidth: 1.6 },
+} as const
+
+type Spec = Record<string, unknown>
+
+const title = (label: string, unit: string): string => (unit ? `${label} (${unit})` : label)
+
+/** The vega-lite spec of a chart, with its data inline. */
+export function chartSpec(chart: ChartOutcome, digits: number): Spec {
+  const panels =
+    chart.layout === 'overlaid'
+      ? [panel(chart, chart.series, digits, true)]
+      : chart.series.map((s, i) => panel(chart, [s], digits, i === chart.series.length - 1, i))
+  const description = `${chart.title ?? 'Chart'}: ${chart.series.map((s) => title(s.label, s.unit)).join(', ')} against ${title(chart.x.label, chart.x.unit)} for #${chart.of}`
+  const base: Spec = {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    description,
+    config: CHART_CONFIG,
+  }
+  if (chart.title) base.title = { text: chart.title, anchor: 'start', fontSize: 11.5, fontWeight: 'bold', font: FONT, color: '#1c2226' }
+  return panels.length === 1
+    ? { ...base, ...panels[0] }
+    : { ...base, vconcat: panels, spacing: 10, resolve: { scale: { color: 'independent', strokeDash: 'independent' } } }
+}
+
+function panel(chart: ChartOutcome, series: readonly ChartSeries[], digits: number, showXTitle: boolean, offset = 0): Spec {
+  // Long form, one row per point; `i` keeps the sweep order (a path's x is not monotonic).
+  const rows: { x: number; y: number; series: string; i: number }[] = []
+  for (const s of series) {
+    for (let i = 0; i < chart.x.values.length; i++) {
+      const x = chart.x.values[i]!
+      const y = s.values[i]!
+      if (Number.isFinite(x) && Number.isFinite(y)) rows.push({ x: round(x), y: round(y), series: title(s.label, s.unit), i })
+    }
+  }
+  const names = series.map((s) => title(s.label, s.unit))
+  const styles = series.map((_, i) => SERIES_STYLE[(offset + i) % SERIES_STYLE.length]!)
+  const xScale: Spec = { zero: false, nice: chart.xRange === null }
+  if (chart.xRange) xScale.domain = [...chart.xRange]
+  // A path to scale keeps exact domains: rounding them out would change one axis's scale.
+  const yScale: Spec = { zero: false, nice: !chart.equalAspect }
+  if (chart.equalAspect) xScale.nice = false
+  if (chart.yRange) yScale.domain = [...chart.yRange]
+  const angleAxis = chart.x.kind === 'angle' && chart.x.unit === '°'
+  const xAxis: Spec = { title: showXTitle ? title(chart.x.label, chart.x.unit) : null, labels: true }
+  if (angleAxis && chart.xRange) xAxis.values = ticks(chart.xRange[0], chart.xRange[1])
+  const line: Spec = {
+    data: { values: rows },
+    mark: { type: 'line', strokeWidth: 1.6, clip: true },
+    encoding: {
+      x: { field: 'x', type: 'quantitative', scale: xScale, axis: xAxis },
+      y: {
+        field: 'y',
+        type: 'quantitative',
+        scale: yScale,
+        axis: { title: series.length === 1 ? names[0] : series[0]!.unit ? `(${series[0]!.unit})` : null },
+      },
+      color: { field: 'series', type: 'nominal', scale: { domain: names, range: styles.map((s) => s.color) }, legend: series.length > 1 ? {} : null },
+      strokeDash: { field: 'series', type: 'nominal', scale: { domain: names, range: styles.map((s) => [...s.dash]) }, legend: series.length > 1 ? {} : null },
+      order: { field: 'i', type: 'quantitative' },
+    },
+  }
+  const layers: Spec[] = []
+  // The failing stretch first, under the lines.
+  const limit = chart.limit && series.some((s) => s.name === chart.limit!.series) ? chart.limit : null
+  if (limit) {
+    const target = series.find((s) => s.name === limit.series)!
+    const spans = failingSpans(chart.x.values, limit.symmetric ? target.values.map(Math.abs) : target.values, limit.sense, limit.value)
+    if (spans.length > 0) {
+      layers.push({
+        data: { values: spans.map(([x, x2]) => ({ x: round(x), x2: round(x2) })) },
+        mark: { type: 'rect', color: LIMIT_COLOR, opacity: 0.12 },
+        encoding: { x: { field: 'x', type: 'quantitative' }, x2: { field: 'x2' } },
+      })
+    }
+  }
+  layers.push(line)
+  if (chart.markers.length > 0) {
+    const markers = chart.markers.map((m) => ({ x: round(m.x), label: m.label }))
+    layers.push({
+      data: { values: markers },
+      mark: { type: 'rule', color: MARKER_COLOR, strokeDash: [3, 3], strokeWidth: 0.9 },
+      encoding: { x: { field: 'x', type: 'quantitative' } },
+    })
+    layers.push({
+      data: { values: markers },
+      mark: { type: 'text', angle: 270, align: 'right', baseline: 'bottom', dx: -4, dy: -3, fontSize: 9, color: MARKER_COLOR, font: FONT },
+      encoding: { x: { field: 'x', type: 'quantitative' }, y: { value: 2 }, text: { field: 'label' } },
+    })
+  }
+  // Peaks: the analysis's exact extreme where there is one, else the largest |value| sampled.
+  const xText = (x: number) => (chart.x.unit === '°' ? `${formatNumber(x, 4)}°` : `${formatNumber(x, 4)} ${chart.x.unit}`)
+  const yText = (y: number, s: ChartSeries) => `${formatNumber(y, Math.min(digits, 4))}${s.unit === '°' ? '°' : ` ${s.unit}`}`
+  const peaks = series.flatMap((s) => {
+    const exact = chart.peaks.find((p) => p.series === s.name)
+    if (exact) return [{ x: round(exact.x), y: round(exact.y), text: `${exact.label} ${yText(exact.y, s)} at ${xText(exact.x)}` }]
+    // Against another quantity (a path, a phase plot) the largest sample means little: leave it.
+    if (chart.x.kind !== 'angle' && chart.x.kind !== 'time') return []
+    let best = -1
+    for (let i = 0; i < s.values.length; i++) if (Number.isFinite(s.values[i]!) && (best < 0 || Math.abs(s.values[i]!) > Math.abs(s.values[best]!))) best = i
+    if (best < 0) return []
+    const x = chart.x.values[best]!
+    const y = s.values[best]!
+    return [{ x: round(x), y: round(y), text: `largest |value| ${yText(y, s)} at ${xText(x)}` }]
+  })
+  layers.push({
+    data: { values: peaks },
+    mark: { type: 'point', filled: true, size: 28, color: '#1c2226' },
+    encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' } },
+  })
+  layers.push({
+    data: { values: peaks },
+    mark: { type: 'text', align: 'left', dx: 5, dy: -7, fontSize: 9.5, color: '#1c2226', font: FONT },
+    encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
+  })
+  if (limit) {
+    const target = series.find((s) => s.name === limit.series)!
+    const text = `${limit.sense} ${limit.symmetric ? '±' : ''}${formatNumber(limit.value, 4)}${target.unit === '°' ? '°' : ` ${target.unit}`}`
+    const levels = limit.symmetric ? [limit.value, -limit.value] : [limit.value]
+    layers.push({
+      data: { values: levels.map((y) => ({ y: round(y), text })) },
+      mark: { type: 'rule', color: LIMIT_COLOR, strokeDash: [6, 3], strokeWidth: 1.2 },
+      encoding: { y: { field: 'y', type: 'quantitative' } },
+    })
+    layers.push({
+      data: { values: [{ y: round(limit.value), text }] },
+      mark: { type: 'text', align: 'right', baseline: limit.sense === 'at least' ? 'top' : 'bottom', dy: limit.sense === 'at least' ? 3 : -3, fontSize: 9.5, color: LIMIT_COLOR, font: FONT },
+      encoding: { y: { field: 'y', type: 'quantitative' }, x: { value: chart.width - 4 }, text: { field: 'text' } },
+    })
+  }
+  let width = chart.width
+  let height = chart.height
+  if (chart.equalAspect) {
+    // Same scale both ways: fit the data's box into the size asked for.
+    const [xs, ys] = [extent(chart.x.values), extent(series[0]!.values)]
+    const scale = Math.min(chart.width / (xs[1] - xs[0] || 1), chart.height / (ys[1] - ys[0] || 1))
+    width = Math.max(120, Math.round((xs[1] - xs[0]) * scale))
+    height = Math.max(80, Math.round((ys[1] - ys[0]) * scale))
+  }
+  return { width, height, layer: layers }
+}
+
+/** Intervals of x where the values break the limit (linear interpolation at the crossings). */
+export function failingSpans(xs: Float64Array, ys: Float64Array, sense: 'at least' | 'at most', limit: number): [number, number][] {
+  const bad = (y: number) => (sense === 'at least' ? y < limit : y > limit)
+  const spans: [number, number][] = []
+  let start: number | null = null
+  for (let i = 0; i < xs.length; i++) {
+    const y = ys[i]!
+    if (!Number.isFinite(y)) continue
+    if (bad(y) && start === null) start = i === 0 ? xs[0]! : cross(xs[i - 1]!, ys[i - 1]!, xs[i]!, y, limit)
+    if (!bad(y) && start !== null) {
+      spans.push([start, cross(xs[i - 1]!, ys[i - 1]!, xs[i]!, y, limit)])
+      start = null
+    }
+  }
+  if (start !== null) spans.push([start, xs[xs.length - 1]!])
+  return spans
+}
+
+function cross(x0: number, y0: number, x1: number, y1: number, level: number): number {
+  return y1 === y0 ? x0 : x0 + ((level - y0) * (x1 - x0)) / (y1 - y0)
+}
+
+function extent(values: Float64Array): [number, number] {
+  let lo = Number.POSITIVE_INFINITY
+  let hi = Number.NEGATIVE_INFINITY
+  for (const v of values) if (Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+  return [lo, hi]
+}
+
+/** Ticks every 30°, 45° or 60° across an angle range. */
+function ticks(lo: number, hi: number): number[] {
+  const span = hi - lo
+  const step = span > 300 ? 60 : span > 150 ? 30 : span > 60 ? 15 : 5
+  const out: number[] = []
+  for (let t = Math.ceil(lo / step) * step; t <= hi + 1e-9; t += step) out.push(t)
+  return out
+}
+
+/** Nine significant digits in the spec: plenty for a chart, stable text. */
+function round(value: number): number {
+  return Number(value.toPrecision(9))
+}

@@ -1,22 +1,25 @@
 /**
  * `linkwright build`: every note found becomes a package folder
  *
- *     out/<note>/index.html      the calculation package
- *     out/<note>/<note>.pdf      printed by Chromium (unless --no-pdf)
- *     out/<note>/results.json    inputs, results and checks in SI and as shown
+ *     out/<note>/index.html        the calculation package
+ *     out/<note>/<note>.pdf        printed by Chromium (unless --no-pdf)
+ *     out/<note>/results.json      inputs, results and checks in SI and as shown
  *     out/<note>/charts/*.vl.json  the vega-lite spec of each chart
- *     out/<note>/assets/…        styles and math fonts (nothing is fetched)
+ *     out/<note>/assets/…          styles and math fonts (nothing is fetched)
  *
- * A note with errors keeps its previous package untouched; the other notes
- * still build.
+ * Each package is written beside its folder, printed there, and then renamed
+ * into place: a note with errors, or a build that stops half-way, leaves the
+ * previous package whole. The other notes still build.
  */
 import { execFileSync } from 'node:child_process'
 import { readFileSync, readdirSync } from 'node:fs'
-import { basename, dirname, join, relative } from 'node:path'
+import { basename, dirname, extname, join, relative } from 'node:path'
 import { VFile } from 'vfile'
-import { COMMIT, TOOL } from '../version.js'
+import type { NoteModel } from '../notes/note.js'
 import type { ChartCache } from '../render/chart-svg.js'
-import { findNotes, packageFolder, writeFileAtomic, writeFolder } from './files.js'
+import { statusWords } from '../render/sections.js'
+import { COMMIT, TOOL } from '../version.js'
+import { findNotes, packageFolder, stageFolder, writeFileAtomic, type StagedFolder } from './files.js'
 import { katexDist, templatePath } from './paths.js'
 import { report } from './reporter.js'
 
@@ -29,6 +32,9 @@ export interface BuildOptions {
   readonly browser: string | null
   readonly quiet: boolean
 }
+
+/** Exit codes of the build command. */
+export const EXIT = { ok: 0, errors: 1, usage: 2, noBrowser: 3 } as const
 
 /** Files every package carries, read once per run. */
 function assets(): Map<string, Uint8Array | string> {
@@ -76,13 +82,23 @@ function gitDate(path: string): string | null {
   }
 }
 
+/** A built note waiting to be printed and put in place. */
+interface Staged {
+  readonly file: VFile
+  readonly folder: string
+  readonly staged: StagedFolder
+  readonly model: NoteModel
+  readonly date: string | null
+  readonly stem: string
+}
+
 /** Run the build command; returns the exit code. */
 export async function buildCommand(options: BuildOptions, out: (text: string) => void, err: (text: string) => void): Promise<number> {
   const { notes, missing } = findNotes(options.paths)
   for (const path of missing) err(`linkwright: cannot find ${path}\n`)
   if (notes.length === 0) {
     err(`linkwright: no notes (.md) found in ${options.paths.join(', ')}\n`)
-    return missing.length > 0 ? 2 : 1
+    return missing.length > 0 ? EXIT.usage : EXIT.errors
   }
   // The renderer is loaded only by commands that render.
   const { buildNote } = await import('../build.js')
@@ -91,14 +107,27 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
   const cache = diskCache(join(options.out, '.cache', 'charts'))
   const base = options.paths.length === 1 && !options.paths[0]!.endsWith('.md') ? options.paths[0]! : '.'
   const files: VFile[] = []
+  const staged: Staged[] = []
   let failed = missing.length > 0
+
+  // 1. Build every note into a staged folder.
   for (const path of notes) {
     const shown = relative(process.cwd(), path) || path
     const file = new VFile({ path: shown, value: readFileSync(path, 'utf8') })
     files.push(file)
-    let built
+    const folder = packageFolder(options.out, path, base)
     try {
-      built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), chartCache: cache })
+      const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), chartCache: cache })
+      if (!built.ok || built.html === null) {
+        failed = true
+        if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)
+        continue
+      }
+      const content = new Map(shared)
+      content.set('index.html', built.html)
+      content.set('results.json', `${JSON.stringify(built.results, null, 2)}\n`)
+      for (const [name, text] of built.files) content.set(name, text)
+      staged.push({ file, folder, staged: stageFolder(folder, content), model: built.model, date: built.date, stem: basename(path, extname(path)) })
     } catch (error) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
       file.message(`Cannot build this note: internal error: ${error instanceof Error ? error.message : String(error)}`, {
@@ -107,24 +136,80 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
         source: 'linkwright',
       }).fatal = true
       failed = true
-      continue
     }
-    const folder = packageFolder(options.out, path, base)
-    if (!built.ok || built.html === null) {
-      failed = true
-      if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)
-      continue
+  }
+
+  // 2. Print the staged packages with one browser (depends on 1).
+  let noBrowser = false
+  const printed = new Map<Staged, number>()
+  try {
+    if (options.pdf && staged.length > 0) {
+      const { findBrowser, INSTALL_HINT } = await import('../pdf/browser.js')
+      const browser = findBrowser(options.browser)
+      if (browser === null) {
+        noBrowser = true
+        err(`linkwright: ${options.browser ? `cannot run the browser at ${options.browser}. ` : ''}${INSTALL_HINT}\n`)
+      } else {
+        const { printPackages } = await import('../pdf/print.js')
+        const results = await printPackages(staged.map((s) => printJob(s, options.paper)), browser)
+        results.forEach((result, i) => {
+          const item = staged[i]!
+          for (const url of result.blocked) {
+            item.file.message(`Blocked a request for \`${url}\` while printing: the package loads nothing from outside its folder`, {
+              place: { line: 1, column: 1 },
+              ruleId: 'remote-resource',
+              source: 'linkwright',
+            })
+          }
+          if (result.ok) printed.set(item, result.pages)
+          else {
+            failed = true
+            item.file.message(`Cannot print the PDF: ${result.error}`, { place: { line: 1, column: 1 }, ruleId: 'pdf-print', source: 'linkwright' }).fatal = true
+          }
+        })
+      }
     }
-    const content = new Map(shared)
-    content.set('index.html', built.html)
-    content.set('results.json', `${JSON.stringify(built.results, null, 2)}\n`)
-    for (const [name, text] of built.files) content.set(name, text)
-    writeFolder(folder, content)
-    const fails = built.model.checks.filter((c) => !c.passed).length
-    if (!options.quiet) {
-      out(`${shown}: ${join(folder, 'index.html')}${built.model.checks.length > 0 ? ` (${built.model.checks.length - fails} of ${built.model.checks.length} checks pass)` : ''}\n`)
+    // 3. Put every package in place.
+    for (const item of staged) {
+      item.staged.commit()
+      if (options.quiet) continue
+      const fails = item.model.checks.filter((c) => !c.passed).length
+      const checks = item.model.checks.length > 0 ? ` (${item.model.checks.length - fails} of ${item.model.checks.length} checks pass)` : ''
+      const pdf = printed.has(item) ? `, ${join(item.folder, `${item.stem}.pdf`)} (${printed.get(item)} pages)` : ''
+      out(`${item.file.path}: ${join(item.folder, 'index.html')}${pdf}${checks}\n`)
+    }
+  } finally {
+    // Anything not committed (an exception above) is dropped; the old packages stay.
+    for (const item of staged) {
+      try {
+        item.staged.discard()
+      } catch {
+        // already committed or gone
+      }
     }
   }
   err(report(files, { quiet: options.quiet }))
-  return failed ? 1 : 0
+  if (failed) return EXIT.errors
+  return noBrowser ? EXIT.noBrowser : EXIT.ok
+}
+
+function printJob(item: Staged, paper: 'A4' | 'Letter' | null) {
+  const { meta } = item.model
+  const people = (['prepared', 'checked', 'approved'] as const).flatMap((role) => (meta.people[role] ? [`${role} by ${meta.people[role]!.name}`] : []))
+  const dates = [item.date, ...meta.revisions.map((r) => r.date)].filter((d): d is string => !!d && /^\d{4}-\d{2}-\d{2}$/.test(d)).sort()
+  return {
+    html: join(item.staged.path, 'index.html'),
+    pdf: join(item.staged.path, `${item.stem}.pdf`),
+    folder: item.staged.path,
+    paper: paper ?? meta.paper,
+    title: meta.title,
+    number: meta.number,
+    revision: meta.revision,
+    status: statusWords(meta.status),
+    fingerprint: item.model.fingerprint,
+    author: people.join('; ') || 'not stated',
+    // The note's date; failing that its latest revision; never the clock.
+    date: item.date ?? dates[dates.length - 1] ?? '1970-01-01',
+    tool: `${TOOL.name} ${TOOL.version}`,
+  }
 }

@@ -34,12 +34,21 @@ export function packageFolder(outDir: string, note: string, base: string): strin
 
 let counter = 0
 
+/** A package folder written beside its target, waiting to replace it. */
+export interface StagedFolder {
+  /** The fresh folder (more files, such as the PDF, may be added). */
+  readonly path: string
+  /** Replace the target with the fresh folder (rename), then drop the old one. */
+  commit(): void
+  /** Drop the fresh folder; the target stays as it was. */
+  discard(): void
+}
+
 /**
- * Write a package folder: files go into a fresh folder beside the target, which
- * then replaces the target by rename. A failure on the way leaves the old
- * package as it was.
+ * Write a package into a fresh folder beside the target. Nothing touches the
+ * target until `commit()`, so a failure on the way leaves the old package whole.
  */
-export function writeFolder(target: string, files: ReadonlyMap<string, string | Uint8Array>): void {
+export function stageFolder(target: string, files: ReadonlyMap<string, string | Uint8Array>): StagedFolder {
   const parent = dirname(target)
   mkdirSync(parent, { recursive: true })
   const tag = `${process.pid}-${++counter}`
@@ -51,14 +60,32 @@ export function writeFolder(target: string, files: ReadonlyMap<string, string | 
       mkdirSync(dirname(path), { recursive: true })
       writeFileSync(path, content)
     }
-    if (existsSync(target)) renameSync(target, old)
-    renameSync(fresh, target)
   } catch (error) {
     rmSync(fresh, { recursive: true, force: true })
-    if (!existsSync(target) && existsSync(old)) renameSync(old, target)
     throw error
   }
-  rmSync(old, { recursive: true, force: true })
+  return {
+    path: fresh,
+    commit() {
+      try {
+        if (existsSync(target)) renameSync(target, old)
+        renameSync(fresh, target)
+      } catch (error) {
+        if (!existsSync(target) && existsSync(old)) renameSync(old, target)
+        rmSync(fresh, { recursive: true, force: true })
+        throw error
+      }
+      rmSync(old, { recursive: true, force: true })
+    },
+    discard() {
+      rmSync(fresh, { recursive: true, force: true })
+    },
+  }
+}
+
+/** Write a package folder in one step (stage, then commit). */
+export function writeFolder(target: string, files: ReadonlyMap<string, string | Uint8Array>): void {
+  stageFolder(target, files).commit()
 }
 
 /** Write one file by writing beside it and renaming over it. */

@@ -1,0 +1,151 @@
+/**
+ * Printing packages to PDF with one Chromium: pages printed concurrently up to
+ * the core count, nothing fetched from the network (only the package's own
+ * files and data URLs load), a header and footer on every page, and the PDF's
+ * metadata and dates taken from the note so a rebuild gives the same PDF.
+ */
+import { availableParallelism } from 'node:os'
+import { resolve, sep } from 'node:path'
+import { pathToFileURL, fileURLToPath } from 'node:url'
+import { writeFileSync } from 'node:fs'
+import { launchBrowser, type RunningBrowser } from './browser.js'
+
+/** One package to print. */
+export interface PrintJob {
+  /** The package's index.html. */
+  readonly html: string
+  /** Where the PDF goes. */
+  readonly pdf: string
+  /** The package folder: the only place the page may load files from. */
+  readonly folder: string
+  readonly paper: 'A4' | 'Letter'
+  readonly title: string
+  readonly number: string
+  readonly revision: string
+  /** DRAFT, FOR REVIEW or APPROVED. */
+  readonly status: string
+  readonly fingerprint: string
+  /** People in their roles, for the PDF's author field. */
+  readonly author: string
+  /** YYYY-MM-DD from the note, used as the PDF's creation and modification date. */
+  readonly date: string
+  readonly tool: string
+}
+
+/** What printing one package gave. */
+export interface PrintResult {
+  readonly job: PrintJob
+  readonly ok: boolean
+  readonly error: string | null
+  readonly pages: number
+  /** Requests the page made that were refused (anything outside the package folder). */
+  readonly blocked: readonly string[]
+}
+
+const esc = (text: string): string => text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;')
+
+/** Page header and footer: inline styles only (Chromium prints them outside the page's CSS). */
+export function headerFooter(job: PrintJob): { header: string; footer: string } {
+  const style = 'font-family: DejaVu Sans, Liberation Sans, Arial, sans-serif; font-size: 7.5pt; color: #4d5962; width: 100%; margin: 0 16mm 0 25mm; display: flex; justify-content: space-between;'
+  const draft = job.status === 'DRAFT' ? '<span style="color: #a11d21; font-weight: bold; letter-spacing: 0.1em;">DRAFT</span>' : ''
+  const short = job.fingerprint.slice(0, 16).replace(/(.{4})(?=.)/g, '$1 ')
+  return {
+    header: `<div style="${style}"><span>${esc(job.title)}</span>${draft}<span>${esc(job.number)} rev ${esc(job.revision)}</span></div>`,
+    footer: `<div style="${style}"><span>${esc(job.status)} · fingerprint ${short} · ${esc(job.tool)}</span><span>page <span class="pageNumber"></span> of <span class="totalPages"></span></span></div>`,
+  }
+}
+
+/**
+ * Print every job with one browser, `concurrency` pages at a time (default: the
+ * core count). The browser is closed when done, on error, and on Ctrl-C.
+ */
+export async function printPackages(jobs: readonly PrintJob[], browserPath: string, concurrency = availableParallelism()): Promise<PrintResult[]> {
+  if (jobs.length === 0) return []
+  const running = await launchBrowser(browserPath)
+  const stop = () => {
+    void running.close().finally(() => process.exit(130))
+  }
+  process.once('SIGINT', stop)
+  process.once('SIGTERM', stop)
+  try {
+    const results: PrintResult[] = new Array(jobs.length)
+    let next = 0
+    const worker = async () => {
+      while (next < jobs.length) {
+        const index = next++
+        results[index] = await printOne(running, jobs[index]!)
+      }
+    }
+    await Promise.all(Array.from({ length: Math.max(1, Math.min(concurrency, jobs.length)) }, worker))
+    return results
+  } finally {
+    process.removeListener('SIGINT', stop)
+    process.removeListener('SIGTERM', stop)
+    await running.close()
+  }
+}
+
+async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintResult> {
+  const blocked: string[] = []
+  const page = await running.browser.newPage()
+  try {
+    const root = resolve(job.folder) + sep
+    await page.setRequestInterception(true)
+    page.on('request', (request) => {
+      const url = request.url()
+      if (url.startsWith('data:')) return void request.continue()
+      if (url.startsWith('file:')) {
+        const path = resolve(fileURLToPath(url))
+        if (path.startsWith(root)) return void request.continue()
+      }
+      blocked.push(url)
+      void request.abort('blockedbyclient')
+    })
+    await page.goto(pathToFileURL(resolve(job.html)).href, { waitUntil: 'load', timeout: 60_000 })
+    await page.evaluate(() => document.fonts.ready.then(() => undefined))
+    // Links to the package's other files would print as this machine's file:// paths: keep their text only.
+    await page.evaluate(() => {
+      for (const link of document.querySelectorAll('a[href]')) {
+        if (!(link.getAttribute('href') ?? '').startsWith('#')) link.removeAttribute('href')
+      }
+    })
+    const { header, footer } = headerFooter(job)
+    const pdf = await page.pdf({
+      format: job.paper === 'Letter' ? 'letter' : 'a4',
+      printBackground: true,
+      displayHeaderFooter: true,
+      headerTemplate: header,
+      footerTemplate: footer,
+      margin: { top: '22mm', bottom: '20mm', left: '25mm', right: '16mm' },
+      preferCSSPageSize: false,
+      timeout: 120_000,
+    })
+    const { bytes, pages } = await withMetadata(pdf, job)
+    writeFileSync(job.pdf, bytes)
+    return { job, ok: true, error: null, pages, blocked }
+  } catch (error) {
+    return { job, ok: false, error: error instanceof Error ? error.message : String(error), pages: 0, blocked }
+  } finally {
+    await page.close().catch(() => undefined)
+  }
+}
+
+/**
+ * Title, subject (document number and revision), author (the roles), keywords
+ * (fingerprint), creator, and the note's date instead of the clock's, so that
+ * printing the same package again gives the same bytes.
+ */
+export async function withMetadata(pdf: Uint8Array, job: PrintJob): Promise<{ bytes: Uint8Array; pages: number }> {
+  const { PDFDocument } = await import('pdf-lib')
+  const doc = await PDFDocument.load(pdf, { updateMetadata: false })
+  const date = new Date(`${job.date}T00:00:00Z`)
+  doc.setTitle(job.title, { showInWindowTitleBar: true })
+  doc.setSubject(`${job.number} rev ${job.revision} (${job.status})`)
+  doc.setAuthor(job.author)
+  doc.setKeywords([`fingerprint ${job.fingerprint}`, 'linkage design calculation'])
+  doc.setCreator(job.tool)
+  doc.setProducer(`${job.tool} with Chromium`)
+  doc.setCreationDate(date)
+  doc.setModificationDate(date)
+  return { bytes: await doc.save({ useObjectStreams: false, updateFieldAppearances: false }), pages: doc.getPageCount() }
+}

@@ -94,7 +94,7 @@ interface Staged {
 
 /** Run the build command; returns the exit code. */
 export async function buildCommand(options: BuildOptions, out: (text: string) => void, err: (text: string) => void): Promise<number> {
-  const { notes, missing } = findNotes(options.paths)
+  const { notes, missing, baseOf } = findNotes(options.paths)
   for (const path of missing) err(`linkwright: cannot find ${path}\n`)
   if (notes.length === 0) {
     err(`linkwright: no notes (.md) found in ${options.paths.join(', ')}\n`)
@@ -105,7 +105,6 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
   const template = readFileSync(templatePath('package.html'), 'utf8')
   const shared = assets()
   const cache = diskCache(join(options.out, '.cache', 'charts'))
-  const base = options.paths.length === 1 && !options.paths[0]!.endsWith('.md') ? options.paths[0]! : '.'
   const files: VFile[] = []
   const staged: Staged[] = []
   let failed = missing.length > 0
@@ -115,7 +114,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     const shown = relative(process.cwd(), path) || path
     const file = new VFile({ path: shown, value: readFileSync(path, 'utf8') })
     files.push(file)
-    const folder = packageFolder(options.out, path, base)
+    const folder = packageFolder(options.out, path, baseOf.get(path) ?? '.')
     try {
       const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), chartCache: cache })
       if (!built.ok || built.html === null) {

@@ -5,24 +5,34 @@
 import { existsSync, mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs'
 import { basename, dirname, extname, join, relative, resolve } from 'node:path'
 
-/** Markdown notes under the given paths (files as given, folders searched), sorted. */
-export function findNotes(paths: readonly string[]): { notes: string[]; missing: string[] } {
+/**
+ * Markdown notes under the given paths (files as given, folders searched),
+ * sorted, each with the folder its package path is taken relative to.
+ */
+export function findNotes(paths: readonly string[]): { notes: string[]; missing: string[]; baseOf: Map<string, string> } {
   const notes = new Set<string>()
+  const baseOf = new Map<string, string>()
   const missing: string[] = []
-  const walk = (dir: string): void => {
+  const walk = (dir: string, base: string): void => {
     for (const name of readdirSync(dir).sort()) {
       if (name.startsWith('.') || name === 'node_modules') continue
       const full = join(dir, name)
-      if (statSync(full).isDirectory()) walk(full)
-      else if (extname(name).toLowerCase() === '.md') notes.add(full)
+      if (statSync(full).isDirectory()) walk(full, base)
+      else if (extname(name).toLowerCase() === '.md') {
+        notes.add(full)
+        if (!baseOf.has(full)) baseOf.set(full, base)
+      }
     }
   }
   for (const path of paths) {
     if (!existsSync(path)) missing.push(path)
-    else if (statSync(path).isDirectory()) walk(path)
-    else notes.add(path)
+    else if (statSync(path).isDirectory()) walk(path, path)
+    else {
+      notes.add(path)
+      baseOf.set(path, dirname(path))
+    }
   }
-  return { notes: [...notes].sort(), missing }
+  return { notes: [...notes].sort(), missing, baseOf }
 }
 
 /** The package folder of a note: out/<folder relative to the base>/<stem>. */

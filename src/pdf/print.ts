@@ -120,7 +120,7 @@ async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintRe
       preferCSSPageSize: false,
       timeout: 120_000,
     })
-    const { bytes, pages } = await withMetadata(pdf, job)
+    const { bytes, pages } = await withMetadata(normaliseStructureIds(pdf), job)
     writeFileSync(job.pdf, bytes)
     return { job, ok: true, error: null, pages, blocked }
   } catch (error) {
@@ -128,6 +128,20 @@ async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintRe
   } finally {
     await page.close().catch(() => undefined)
   }
+}
+
+/**
+ * Chromium tags the PDF's structure elements with its DOM node numbers
+ * (`(node00000097)`), which shift by one now and then between runs. Renumber
+ * them 1, 2, 3 … keeping their order (the ID tree stays sorted) and their
+ * length (so every byte offset stays valid).
+ */
+export function normaliseStructureIds(pdf: Uint8Array): Uint8Array {
+  const text = Buffer.from(pdf).toString('latin1')
+  const ids = [...new Set([...text.matchAll(/\(node(\d{8})\)/g)].map((m) => m[1]!))].sort()
+  if (ids.length === 0) return pdf
+  const renamed = new Map(ids.map((id, i) => [id, String(i + 1).padStart(8, '0')]))
+  return Buffer.from(text.replace(/\(node(\d{8})\)/g, (_, id: string) => `(node${renamed.get(id)})`), 'latin1')
 }
 
 /**

@@ -22,6 +22,8 @@ const MARKER_COLOR = '#4d5962'
 
 /** The style every chart shares. */
 export const CHART_CONFIG = {
+  // The figure carries one text alternative; the marks inside stay out of the accessibility tree.
+  aria: false,
   font: FONT,
   background: 'white',
   padding: 6,

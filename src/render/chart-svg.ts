@@ -60,7 +60,15 @@ export async function chartSvg(spec: unknown, prefix: string, cache?: ChartCache
   }
   if (memory.size >= MEMORY_LIMIT) memory.clear()
   memory.set(key, svg)
-  return { svg: scopeIds(svg, prefix), cached }
+  return { svg: stripAria(scopeIds(svg, prefix)), cached }
+}
+
+/**
+ * Take vega's ARIA roles and labels off the marks: the figure gives the chart one
+ * text alternative, and per-mark roles without labels fail accessibility audits.
+ */
+export function stripAria(svg: string): string {
+  return svg.replace(/\s(?:role="graphics-[a-z-]+"|aria-roledescription="[^"]*"|aria-label="[^"]*"|aria-hidden="[^"]*")/g, '')
 }
 
 /** Rename every id (and its url(#…)/href="#…" uses) to prefix-1, prefix-2 … in order of appearance. */

@@ -63,8 +63,9 @@ export async function buildNote(file: VFile, options: BuildNoteOptions): Promise
       const name = block.id ?? `chart-${block.index + 1}`
       const spec = chartSpec(chart, model.meta.digits)
       const specFile = `charts/${name}.vl.json`
-      files.set(specFile, `${JSON.stringify(spec, null, 2)}\n`)
-      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache)
+      const specText = `${JSON.stringify(spec, null, 2)}\n`
+      files.set(specFile, specText)
+      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache, specText)
       if (rendered.cached) cached++
       charts.set(block.index, { svg: rendered.svg, specFile })
     }),

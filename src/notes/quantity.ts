@@ -247,11 +247,23 @@ export function toUnit(si: number, kind: QuantityKind): Unit | number {
   return unit === '' ? si : math.unit(si, unit)
 }
 
-/** Convert an SI number of a kind into a display unit (e.g. 0.04 m → 40 for "mm"). */
+const factors = new Map<string, number>()
+
+/**
+ * Convert an SI number of a kind into a display unit (e.g. 0.04 m → 40 for "mm").
+ * Every unit of our kinds is a plain multiple of its SI unit, so the factor is
+ * found once by mathjs and then reused: charts convert thousands of values.
+ */
 export function fromSI(si: number, kind: QuantityKind, unit: string): number {
   const base = KINDS[kind].si
   if (base === '' || unit === base) return si
-  return math.unit(si, base).toNumber(unit)
+  const key = `${base}>${unit}`
+  let factor = factors.get(key)
+  if (factor === undefined) {
+    factor = math.unit(1, base).toNumber(unit)
+    factors.set(key, factor)
+  }
+  return si * factor
 }
 
 /** True when `unit` is a unit of the kind (used to check display-unit overrides). */

@@ -104,10 +104,13 @@ async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintRe
     await page.goto(pathToFileURL(resolve(job.html)).href, { waitUntil: 'load', timeout: 60_000 })
     await page.evaluate(() => document.fonts.ready.then(() => undefined))
     // Links to the package's other files would print as this machine's file:// paths: keep their text only.
+    // The screen-only animation and KaTeX's hidden MathML copy (for screen readers of the HTML)
+    // add nothing to paper but layout time and duplicate text in the PDF's text layer.
     await page.evaluate(() => {
       for (const link of document.querySelectorAll('a[href]')) {
         if (!(link.getAttribute('href') ?? '').startsWith('#')) link.removeAttribute('href')
       }
+      for (const hidden of document.querySelectorAll('.katex-mathml, .lw-animation')) hidden.remove()
     })
     const { header, footer } = headerFooter(job)
     const pdf = await page.pdf({
@@ -120,9 +123,9 @@ async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintRe
       preferCSSPageSize: false,
       timeout: 120_000,
     })
-    const { bytes, pages } = await withMetadata(normaliseStructureIds(pdf), job)
+    const bytes = withMetadata(normaliseStructureIds(pdf), job)
     writeFileSync(job.pdf, bytes)
-    return { job, ok: true, error: null, pages, blocked }
+    return { job, ok: true, error: null, pages: countPages(bytes), blocked }
   } catch (error) {
     return { job, ok: false, error: error instanceof Error ? error.message : String(error), pages: 0, blocked }
   } finally {
@@ -144,22 +147,75 @@ export function normaliseStructureIds(pdf: Uint8Array): Uint8Array {
   return Buffer.from(text.replace(/\(node(\d{8})\)/g, (_, id: string) => `(node${renamed.get(id)})`), 'latin1')
 }
 
+/** The document information a PDF carries. */
+export interface PdfInfo {
+  readonly title: string
+  readonly subject: string
+  readonly author: string
+  readonly keywords: string
+  readonly creator: string
+  readonly producer: string
+  /** YYYY-MM-DD */
+  readonly date: string
+}
+
+/** A PDF text string: UTF-16BE with a byte-order mark, written in hex (safe for any character). */
+function pdfText(text: string): string {
+  let hex = 'FEFF'
+  for (let i = 0; i < text.length; i++) hex += text.charCodeAt(i).toString(16).toUpperCase().padStart(4, '0')
+  return `<${hex}>`
+}
+
 /**
- * Title, subject (document number and revision), author (the roles), keywords
- * (fingerprint), creator, and the note's date instead of the clock's, so that
- * printing the same package again gives the same bytes.
+ * Set the document information by an incremental update (a new Info object, a
+ * one-entry cross-reference section and a trailer pointing back to the old one:
+ * the standard way to amend a PDF without rewriting it), and put the note's date
+ * in place of the clock's in the original Info, keeping its length.
  */
-export async function withMetadata(pdf: Uint8Array, job: PrintJob): Promise<{ bytes: Uint8Array; pages: number }> {
-  const { PDFDocument } = await import('pdf-lib')
-  const doc = await PDFDocument.load(pdf, { updateMetadata: false })
-  const date = new Date(`${job.date}T00:00:00Z`)
-  doc.setTitle(job.title, { showInWindowTitleBar: true })
-  doc.setSubject(`${job.number} rev ${job.revision} (${job.status})`)
-  doc.setAuthor(job.author)
-  doc.setKeywords([`fingerprint ${job.fingerprint}`, 'linkage design calculation'])
-  doc.setCreator(job.tool)
-  doc.setProducer(`${job.tool} with Chromium`)
-  doc.setCreationDate(date)
-  doc.setModificationDate(date)
-  return { bytes: await doc.save({ useObjectStreams: false, updateFieldAppearances: false }), pages: doc.getPageCount() }
+export function setPdfInfo(pdf: Uint8Array, info: PdfInfo): Uint8Array {
+  const text = Buffer.from(pdf).toString('latin1')
+  const compact = info.date.replace(/-/g, '')
+  const pdfDate = `D:${compact}000000+00'00'`
+  const dated = text.replace(/\/(CreationDate|ModDate) \(D:\d{14}[^)]*\)/g, (whole, key: string) => {
+    const replacement = `/${key} (${pdfDate})`
+    return replacement.length === whole.length ? replacement : whole
+  })
+  const tail = dated.slice(dated.lastIndexOf('trailer'))
+  const size = /\/Size (\d+)/.exec(tail)
+  const root = /\/Root (\d+ \d+ R)/.exec(tail)
+  const previous = /startxref\s+(\d+)\s+%%EOF\s*$/.exec(dated)
+  if (!size || !root || !previous) throw new Error('Cannot update the PDF’s document information: unexpected trailer')
+  const number = Number(size[1])
+  const object =
+    `${number} 0 obj\n<</Title ${pdfText(info.title)} /Subject ${pdfText(info.subject)} /Author ${pdfText(info.author)} ` +
+    `/Keywords ${pdfText(info.keywords)} /Creator ${pdfText(info.creator)} /Producer ${pdfText(info.producer)} ` +
+    `/CreationDate (${pdfDate}) /ModDate (${pdfDate})>>\nendobj\n`
+  const body = dated.endsWith('\n') ? dated : `${dated}\n`
+  const objectOffset = Buffer.byteLength(body, 'latin1')
+  const xrefOffset = objectOffset + Buffer.byteLength(object, 'latin1')
+  // Each cross-reference entry is exactly 20 bytes, end of line included.
+  const update =
+    `${object}xref\n0 1\n0000000000 65535 f \n${number} 1\n${String(objectOffset).padStart(10, '0')} 00000 n \n` +
+    `trailer\n<</Size ${number + 1} /Root ${root[1]} /Info ${number} 0 R /Prev ${previous[1]}>>\nstartxref\n${xrefOffset}\n%%EOF\n`
+  return Buffer.from(body + update, 'latin1')
+}
+
+/** Title, subject (document number and revision), author (the roles), keywords (fingerprint) and the note's date. */
+export function withMetadata(pdf: Uint8Array, job: PrintJob): Uint8Array {
+  return setPdfInfo(pdf, {
+    title: job.title,
+    subject: `${job.number} rev ${job.revision} (${job.status})`,
+    author: job.author,
+    keywords: `fingerprint ${job.fingerprint}; linkage design calculation`,
+    creator: job.tool,
+    producer: `${job.tool} with Chromium`,
+    date: job.date,
+  })
+}
+
+/** Pages of a PDF printed by Chromium: its page-tree root's /Count. */
+function countPages(pdf: Uint8Array): number {
+  const text = Buffer.from(pdf).toString('latin1')
+  const counts = [...text.matchAll(/\/Type \/Pages[^>]*?\/Count (\d+)/g)].map((m) => Number(m[1]))
+  return counts.length > 0 ? Math.max(...counts) : 0
 }

@@ -14,9 +14,9 @@ export interface ChartCache {
 const memory = new Map<string, string>()
 const MEMORY_LIMIT = 200
 
-/** Content key of a spec (with the renderer's versions, so an upgrade re-renders). */
-export function chartKey(spec: unknown, versions: string): string {
-  return createHash('sha256').update(versions).update(JSON.stringify(spec)).digest('hex')
+/** Content key of a spec's text (with the renderer's versions, so an upgrade re-renders). */
+export function chartKey(specText: string, versions: string): string {
+  return createHash('sha256').update(versions).update(specText).digest('hex')
 }
 
 let renderer: Promise<{ render(spec: unknown): Promise<string>; versions: string }> | null = null
@@ -49,18 +49,27 @@ function loadRenderer() {
  * The SVG of a vega-lite spec, its ids made unique with `prefix` (several charts
  * share one page) and numbered in order so the text is the same on every run.
  */
-export async function chartSvg(spec: unknown, prefix: string, cache?: ChartCache | null): Promise<{ svg: string; cached: boolean }> {
+export async function chartSvg(
+  spec: unknown,
+  prefix: string,
+  cache?: ChartCache | null,
+  specText: string = JSON.stringify(spec),
+): Promise<{ svg: string; cached: boolean }> {
   const { render, versions } = await loadRenderer()
-  const key = chartKey(spec, versions)
-  let svg = memory.get(key) ?? cache?.get(key)
+  const key = chartKey(specText, versions)
+  // In memory the finished SVG is kept per prefix; on disk vega's own output.
+  const finished = memory.get(`${prefix} ${key}`)
+  if (finished !== undefined) return { svg: finished, cached: true }
+  let svg = cache?.get(key)
   const cached = svg !== undefined
   if (svg === undefined) {
     svg = await render(spec)
     cache?.set(key, svg)
   }
+  const result = stripAria(scopeIds(svg, prefix))
   if (memory.size >= MEMORY_LIMIT) memory.clear()
-  memory.set(key, svg)
-  return { svg: stripAria(scopeIds(svg, prefix)), cached }
+  memory.set(`${prefix} ${key}`, result)
+  return { svg: result, cached }
 }
 
 /**

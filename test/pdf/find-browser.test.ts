@@ -52,3 +52,22 @@ describe('headerFooter()', () => {
     expect(footer).toContain('page <span class="pageNumber"></span> of <span class="totalPages"></span>')
   })
 })
+
+describe('setPdfInfo()', () => {
+  it('should append an Info object, an xref section pointing at it and a trailer to the old one', async () => {
+    const { setPdfInfo } = await import('../../src/pdf/print.js')
+    const head = "%PDF-1.4\n1 0 obj\n<</Title (T) /CreationDate (D:20261202040142+00'00')>>\nendobj\n2 0 obj\n<</Type /Catalog>>\nendobj\n"
+    const xref = head.length
+    const original = `${head}xref\n0 3\n0000000000 65535 f \n0000000009 00000 n \n0000000084 00000 n \ntrailer\n<</Size 3\n/Root 2 0 R\n/Info 1 0 R>>\nstartxref\n${xref}\n%%EOF`
+    const out = Buffer.from(setPdfInfo(Buffer.from(original, 'latin1'), { title: 'Größe', subject: 'S', author: 'A', keywords: 'K', creator: 'C', producer: 'P', date: '2026-11-20' })).toString('latin1')
+    // The clock's date is replaced in place, same length.
+    expect(out.slice(0, head.length)).toBe(head.replace("D:20261202040142+00'00'", "D:20261120000000+00'00'"))
+    const newXref = Number(/startxref\n(\d+)\n%%EOF\n$/.exec(out)![1])
+    expect(out.slice(newXref, newXref + 4)).toBe('xref')
+    const objectOffset = Number(/\n3 1\n(\d{10}) 00000 n \n/.exec(out)![1])
+    expect(out.slice(objectOffset, objectOffset + 7)).toBe('3 0 obj')
+    expect(out).toContain(`/Prev ${xref}`)
+    expect(out).toContain('/Info 3 0 R')
+    expect(out).toContain('/Title <FEFF0047007200F600DF0065>')
+  })
+})

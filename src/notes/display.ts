@@ -131,3 +131,8 @@ export function texQuantity(si: number, kind: QuantityKind, units: DisplayUnits,
 export function texUnit(unit: string): string {
   return unit.replace(/\^(\d)/g, '^{$1}').replace(/\*/g, '\\cdot ')
 }
+
+/** An SI quantity as printed in the note's display unit, e.g. "80.007 mm" or "49.17°". */
+export function showQuantity(si: number, kind: QuantityKind, units: DisplayUnits, digits: number): string {
+  return displayValue({ type: 'quantity', kind, si }, units, digits).text
+}

@@ -155,6 +155,19 @@ describe('bad input', () => {
     expect(reason).toBe(messages['invalid-choice']('rotation', 'clockwise', ['ccw', 'cw']))
   })
 
+  it('should place problems of table, chart and drawing blocks', async () => {
+    const drive = crank(`crank: 40 mm\n${base}`)
+    const [line, , rule] = await onlyError(`${drive}\n\`\`\`table\nof: drive\nquantities: position\nevery: 30 deg\nrows: 3\n\`\`\`\n`)
+    expect([line, rule]).toEqual([BODY_LINE + 10, 'table-syntax'])
+    const [, , chartRule, chartReason] = await onlyError(`${drive}\n\`\`\`chart\nof: drive\nseries: speed\n\`\`\`\n`)
+    expect(chartRule).toBe('unknown-quantity')
+    expect(chartReason).toMatch(/^Unexpected quantity `speed` for a drive sweep, expected one of `position`, `displacement`, `velocity`/)
+    const [drawingLine, drawingColumn, drawingRule] = await onlyError(`${drive}\n\`\`\`drawing\nof: drivee\n\`\`\`\n`)
+    expect([drawingLine, drawingColumn, drawingRule]).toEqual([BODY_LINE + 7, 5, 'unknown-block'])
+    const [, , limitRule, limitReason] = await onlyError(`${drive}\n\`\`\`chart\nof: drive\nseries: velocity\nat_most: 40 deg\n\`\`\`\n`)
+    expect([limitRule, limitReason]).toEqual(['chart-syntax', messages['chart-syntax']('`at_most` must be a quantity of the kind of one of the series')])
+  })
+
   it('should report missing front matter fields and a bad status', async () => {
     const { file } = await build('---\ntitle: Only a title\nstatus: finished\n---\n\nText.\n')
     expect(file.messages.map((m) => m.ruleId).sort()).toEqual(['front-matter-field', 'missing-front-matter'])

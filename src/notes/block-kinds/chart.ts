@@ -13,6 +13,7 @@ import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity, type QuantityKind } from '../quantity.js'
 import { reportError } from '../report.js'
+import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type ChartOutcome, type ChartSeries, type SweepSource } from './kind.js'
 
 const KNOWN = ['of', 'series', 'x', 'layout', 'at_least', 'at_most', 'size', 'x_range', 'y_range', 'samples']
@@ -22,30 +23,12 @@ export const chartKind: BlockKind = {
   name: 'chart',
   label: 'Chart',
   needsId: false,
-  dependencies(block, ids) {
-    const of = block.body.entries.find((e) => e.name === 'of')?.value
-    return new Set(of && ids.has(of) ? [of] : [])
-  },
+  dependencies: sweepDependencies,
   evaluate(block, context) {
     const { file, meta } = context
-    const entries = new Map(block.body.entries.map((e) => [e.name, e]))
-    const fail = (detail: string, place = block.place) => {
-      reportError(file, 'chart-syntax', messages['chart-syntax'](detail), place)
-      return null
-    }
-    for (const entry of block.body.entries) {
-      if (!KNOWN.includes(entry.name)) return fail(`unexpected \`${entry.name}\`, expected ${KNOWN.map((k) => `\`${k}\``).join(', ')}`, entry.namePlace)
-    }
-    const of = entries.get('of')
-    if (!of) return fail('missing `of: <linkage block id>`')
-    const source = context.outcomes.get(of.value)?.sweep
-    if (!source) {
-      if (!context.blockIds.has(of.value)) {
-        reportError(file, 'unknown-block', messages['unknown-block'](of.value), of.valuePlace)
-        return null
-      }
-      return fail(`\`${of.value}\` is not a linkage block with swept quantities`, of.valuePlace)
-    }
+    const opened = openSweepBlock(block, context, 'chart-syntax', KNOWN)
+    if (!opened) return null
+    const { entries, of, source, fail } = opened
     const known = source.quantities.map((q) => q.name)
     const names = (entries.get('series')?.value ?? '').split(',').map((s) => s.trim()).filter(Boolean)
     if (names.length === 0 || names.length > 4) return fail('expected `series:` with one to four swept quantities', entries.get('series')?.valuePlace)

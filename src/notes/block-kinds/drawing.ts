@@ -7,12 +7,13 @@
  *     of: pusher
  *     show: dead centres, least transmission angle, 60 deg
  */
-import { displayUnit, formatNumber, unitLabel } from '../display.js'
+import { displayUnit, formatNumber, showQuantity, unitLabel } from '../display.js'
 import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity } from '../quantity.js'
 import { reportError } from '../report.js'
 import type { DisplayUnits } from '../types.js'
+import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type Dimension, type DrawnPose, type DrawingOutcome, type Point2 } from './kind.js'
 
 const KNOWN = ['of', 'show', 'animate', 'size']
@@ -22,31 +23,12 @@ export const drawingKind: BlockKind = {
   name: 'drawing',
   label: 'Drawing',
   needsId: false,
-  dependencies(block, ids) {
-    const of = block.body.entries.find((e) => e.name === 'of')?.value
-    return new Set(of && ids.has(of) ? [of] : [])
-  },
+  dependencies: sweepDependencies,
   evaluate(block, context) {
     const { file, meta } = context
-    const entries = new Map(block.body.entries.map((e) => [e.name, e]))
-    const fail = (detail: string, place = block.place) => {
-      reportError(file, 'drawing-syntax', messages['drawing-syntax'](detail), place)
-      return null
-    }
-    for (const entry of block.body.entries) {
-      if (!KNOWN.includes(entry.name)) return fail(`unexpected \`${entry.name}\`, expected ${KNOWN.map((k) => `\`${k}\``).join(', ')}`, entry.namePlace)
-    }
-    const of = entries.get('of')
-    if (!of) return fail('missing `of: <linkage block id>`')
-    const linkage = context.outcomes.get(of.value)
-    const source = linkage?.sweep
-    if (!linkage || !source) {
-      if (!context.blockIds.has(of.value)) {
-        reportError(file, 'unknown-block', messages['unknown-block'](of.value), of.valuePlace)
-        return null
-      }
-      return fail(`\`${of.value}\` is not a linkage block`, of.valuePlace)
-    }
+    const opened = openSweepBlock(block, context, 'drawing-syntax', KNOWN)
+    if (!opened) return null
+    const { entries, of, linkage, source, fail } = opened
     const { geometry } = source
     const result = (name: string): number | null => {
       const v = linkage.results.find((r) => r.name === name)?.value
@@ -55,7 +37,7 @@ export const drawingKind: BlockKind = {
     // Positions asked for: dead centres (ghosted), named positions and angles (drawn solid).
     const show = (entries.get('show')?.value ?? 'dead centres, least transmission angle').split(',').map((s) => s.trim()).filter(Boolean)
     const poses: DrawnPose[] = []
-    const angleText = (theta: number) => `${formatNumber(fromSI(theta, 'angle', displayUnit('angle', meta.units)), 4)}${unitLabel(displayUnit('angle', meta.units)) === '°' ? '°' : ` ${displayUnit('angle', meta.units)}`}`
+    const angleText = (theta: number) => showQuantity(theta, 'angle', meta.units, 4)
     const add = (label: string, theta: number, ghost: boolean): boolean => {
       const points = geometry.pose(theta)
       if (!points) return false
@@ -79,7 +61,7 @@ export const drawingKind: BlockKind = {
     poses.sort((p, q) => Number(q.ghost) - Number(p.ghost))
 
     const dimensions: Dimension[] = []
-    const text = (symbol: string, si: number, kind: 'length' | 'angle') => `${symbol} = ${showValue(si, kind, meta.units, meta.digits)}`
+    const text = (symbol: string, si: number, kind: 'length' | 'angle') => `${symbol} = ${showQuantity(si, kind, meta.units, meta.digits)}`
     let swing: DrawingOutcome['swing'] = null
     let couplerPath: Float64Array | null = null
     if (geometry.kind === 'slider-crank') {
@@ -107,7 +89,7 @@ export const drawingKind: BlockKind = {
           const b = geometry.pose(t.theta)!.B!
           return Math.atan2(b[1] - o4[1], b[0] - o4[0])
         })
-        swing = { centre: o4, from: angles[0]!, to: angles[1]!, text: `ψ = ${showValue(swingValue, 'angle', meta.units, meta.digits)}` }
+        swing = { centre: o4, from: angles[0]!, to: angles[1]!, text: `ψ = ${showQuantity(swingValue, 'angle', meta.units, meta.digits)}` }
       }
       const ground = linkage.inputs.find((i) => i.name === 'ground')?.value
       if (ground?.type === 'quantity') {
@@ -167,13 +149,6 @@ export const drawingKind: BlockKind = {
     }
     return outcome(block, 'Drawing', { drawing })
   },
-}
-
-function showValue(si: number, kind: 'length' | 'angle', units: DisplayUnits, digits: number): string {
-  const unit = displayUnit(kind, units)
-  const label = unitLabel(unit)
-  const n = formatNumber(fromSI(si, kind, unit), digits)
-  return label === '°' ? `${n}°` : `${n} ${label}`
 }
 
 /** A round scale-bar length near `target` metres: 1, 2 or 5 × 10ⁿ of the display unit. */

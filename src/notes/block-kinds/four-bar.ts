@@ -3,9 +3,8 @@
  * time ratio, output velocity and acceleration, and a coupler-point path.
  */
 import { FOUR_BAR_STATE, FourBarSweep, THETA3, analyseFourBar, fourBar, solveFourBar, type FourBarAnalysis } from '../../linkage/index.js'
-import { displayUnit, formatNumber, unitLabel } from '../display.js'
+import { displayUnit, showQuantity, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
-import { fromSI } from '../quantity.js'
 import { reportWarning } from '../report.js'
 import type { MethodStep, NamedValue } from '../types.js'
 import { inputDependencies, readInputs, type InputSpec } from './inputs.js'
@@ -175,7 +174,7 @@ function fourBarMethod(analysis: FourBarAnalysis, context: EvaluationContext): M
 
 function fourBarWarnings(analysis: FourBarAnalysis, place: import('unist').Position, context: EvaluationContext): string[] {
   const { meta } = context
-  const angle = (si: number): string => `${formatNumber(fromSI(si, 'angle', displayUnit('angle', meta.units)), meta.digits)}${unitLabel(displayUnit('angle', meta.units)) === '°' ? '°' : ` ${unitLabel(displayUnit('angle', meta.units))}`}`
+  const angle = (si: number): string => showQuantity(si, 'angle', meta.units, meta.digits)
   const warnings: string[] = []
   for (const w of analysis.warnings) {
     warnings.push(w.message)

@@ -5,9 +5,8 @@
  * and eccentric kinds.
  */
 import { ROD_ANGLE, SLIDER_CRANK_STATE, SliderCrankSweep, sliderCrankState, type SliderCrankAnalysis } from '../../linkage/index.js'
-import { displayUnit, formatNumber, unitLabel } from '../display.js'
+import { displayUnit, formatNumber, showQuantity, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
-import { fromSI } from '../quantity.js'
 import { reportWarning } from '../report.js'
 import type { CalcBlock, InputValue, MethodStep, NamedValue } from '../types.js'
 import type { Assumption, AngleMarker, EvaluationContext, LinkageGeometry, SweepSource } from './kind.js'
@@ -195,12 +194,7 @@ function paren(text: string): string {
 /** Warnings of a slider-crank in the note's display units. */
 export function sliderCrankWarnings(analysis: SliderCrankAnalysis, block: CalcBlock, context: EvaluationContext): string[] {
   const { meta } = context
-  const show = (si: number, kind: 'length' | 'angle'): string => {
-    const unit = displayUnit(kind, meta.units)
-    const label = unitLabel(unit)
-    const n = formatNumber(fromSI(si, kind, unit), meta.digits)
-    return label === '°' ? `${n}°` : `${n} ${label}`
-  }
+  const show = (si: number, kind: 'length' | 'angle'): string => showQuantity(si, kind, meta.units, meta.digits)
   const warnings: string[] = []
   for (const warning of analysis.warnings) {
     let text = warning.message

@@ -11,6 +11,7 @@ import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity } from '../quantity.js'
 import { reportError } from '../report.js'
+import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type TableOutcome } from './kind.js'
 
 const KNOWN = ['of', 'quantities', 'every', 'at']
@@ -22,30 +23,12 @@ export const tableKind: BlockKind = {
   name: 'table',
   label: 'Table',
   needsId: false,
-  dependencies(block, ids) {
-    const of = block.body.entries.find((e) => e.name === 'of')?.value
-    return new Set(of && ids.has(of) ? [of] : [])
-  },
+  dependencies: sweepDependencies,
   evaluate(block, context) {
     const { file, meta } = context
-    const fail = (detail: string, place = block.place) => {
-      reportError(file, 'table-syntax', messages['table-syntax'](detail), place)
-      return null
-    }
-    const entries = new Map(block.body.entries.map((e) => [e.name, e]))
-    for (const entry of block.body.entries) {
-      if (!KNOWN.includes(entry.name)) return fail(`unexpected \`${entry.name}\`, expected ${KNOWN.map((k) => `\`${k}\``).join(', ')}`, entry.namePlace)
-    }
-    const of = entries.get('of')
-    if (!of) return fail('missing `of: <linkage block id>`')
-    const source = context.outcomes.get(of.value)?.sweep
-    if (!source) {
-      if (!context.blockIds.has(of.value)) {
-        reportError(file, 'unknown-block', messages['unknown-block'](of.value), of.valuePlace)
-        return null
-      }
-      return fail(`\`${of.value}\` is not a linkage block with swept quantities`, of.valuePlace)
-    }
+    const opened = openSweepBlock(block, context, 'table-syntax', KNOWN)
+    if (!opened) return null
+    const { entries, of, source, fail } = opened
     const wanted = (entries.get('quantities')?.value ?? '').split(',').map((q) => q.trim()).filter(Boolean)
     if (wanted.length === 0) return fail('missing `quantities: name, name, …`')
     const known = source.quantities.map((q) => q.name)

@@ -8,8 +8,8 @@ import { messages } from '../messages.js'
 import { reportWarning } from '../report.js'
 import type { MethodStep, NamedValue } from '../types.js'
 import { inputDependencies, readInputs, type InputSpec } from './inputs.js'
-import { outcome, type Assumption, type AngleMarker, type BlockKind, type EvaluationContext, type SweepSource } from './kind.js'
-import { motionInputs, rotationSign, withLinkage } from './linkage-common.js'
+import { outcome, type AngleMarker, type BlockKind, type EvaluationContext, type SweepSource } from './kind.js'
+import { kinematicAssumptions, motionInputs, rotationSign, withLinkage } from './linkage-common.js'
 import { TRANSMISSION_LIMIT, asNamed } from './slider-crank-outcome.js'
 import { flag, publish, quantity, tex, texBare, word } from './values.js'
 
@@ -51,15 +51,7 @@ export const fourBarKind: BlockKind = {
     const results = fourBarResults(analysis)
     publish(context, block.id, [...asNamed(inputs.values), ...results])
     const from = block.id ?? 'four-bar'
-    const assumptions: Assumption[] = [
-      { text: 'Links are rigid; pin joints have no clearance; the motion is planar.', verify: false, from },
-      {
-        text: 'Velocities and accelerations are for the stated input speed and input angular acceleration applied at every input angle (with zero angular acceleration: constant input speed).',
-        verify: false,
-        from,
-      },
-      { text: 'Kinematics only: forces, friction, elastic deflection and manufacturing tolerances are not included.', verify: false, from },
-    ]
+    const assumptions = kinematicAssumptions(from, 'input', 'pin joints')
     return outcome(block, 'Four-bar linkage', {
       inputs: inputs.values,
       results,

@@ -6,7 +6,7 @@ import { LinkageError } from '../../linkage/index.js'
 import { messages } from '../messages.js'
 import { reportError } from '../report.js'
 import type { CalcBlock } from '../types.js'
-import type { EvaluationContext } from './kind.js'
+import type { Assumption, EvaluationContext } from './kind.js'
 import type { InputSpec } from './inputs.js'
 
 /** Speed, angular acceleration and sense of rotation of the driving crank. */
@@ -35,4 +35,21 @@ export function withLinkage<T>(block: CalcBlock, context: EvaluationContext, run
     }
     throw error
   }
+}
+
+/**
+ * The assumptions every kinematic analysis makes.
+ * @param link the driving link in words ("crank" or "input")
+ * @param joints what has no clearance ("pin joints and the slider guide")
+ */
+export function kinematicAssumptions(from: string, link: 'crank' | 'input', joints: string): Assumption[] {
+  return [
+    { text: `Links are rigid; ${joints} have no clearance; the motion is planar.`, verify: false, from },
+    {
+      text: `Velocities and accelerations are for the stated ${link} speed and ${link} angular acceleration applied at every ${link} angle (with zero angular acceleration: constant ${link} speed).`,
+      verify: false,
+      from,
+    },
+    { text: 'Kinematics only: forces, friction, elastic deflection and manufacturing tolerances are not included.', verify: false, from },
+  ]
 }

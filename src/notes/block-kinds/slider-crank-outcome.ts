@@ -10,6 +10,7 @@ import { messages } from '../messages.js'
 import { reportWarning } from '../report.js'
 import type { CalcBlock, InputValue, MethodStep, NamedValue } from '../types.js'
 import type { Assumption, AngleMarker, EvaluationContext, LinkageGeometry, SweepSource } from './kind.js'
+import { kinematicAssumptions } from './linkage-common.js'
 import { flag, quantity, tex, texBare } from './values.js'
 
 /** The least transmission angle commonly accepted (common practice; criterion after Alt, 1932). */
@@ -219,15 +220,7 @@ export function sliderCrankWarnings(analysis: SliderCrankAnalysis, block: CalcBl
 
 /** Assumptions a slider-crank analysis makes. */
 export function sliderCrankAssumptions(analysis: SliderCrankAnalysis, from: string): Assumption[] {
-  const list: Assumption[] = [
-    { text: 'Links are rigid; pin joints and the slider guide have no clearance; the motion is planar.', verify: false, from },
-    {
-      text: 'Velocities and accelerations are for the stated crank speed and crank angular acceleration applied at every crank angle (with zero angular acceleration: constant crank speed).',
-      verify: false,
-      from,
-    },
-    { text: 'Kinematics only: forces, friction, elastic deflection and manufacturing tolerances are not included.', verify: false, from },
-  ]
+  const list = kinematicAssumptions(from, 'crank', 'pin joints and the slider guide')
   if (analysis.linkage.equivalentFourBar) {
     list.push({
       text: 'The slider path is a circular arc touching the line of the offset at the stated tangent point; the slider is treated as the pin of a rocker pivoted at the arc centre.',

@@ -39,7 +39,7 @@ describe('bad input', () => {
       BODY_LINE,
       1,
       'unknown-block-kind',
-      messages['unknown-block-kind']('slidercrank', ['given', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
+      messages['unknown-block-kind']('slidercrank', ['given', 'slider-crank-synthesis', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
     ])
   })
 

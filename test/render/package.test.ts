@@ -58,7 +58,7 @@ describe('package sections', () => {
   })
 
   it('should print the core’s numbers', () => {
-    const core = analyseSliderCrank(sliderCrank({ crank: 0.038, rod: 0.104, offset: 0.03, rotation: -1 }), { speed: (96 * 2 * Math.PI) / 60 })
+    const core = analyseSliderCrank(sliderCrank({ crank: 0.0378, rod: 0.1, offset: 0.03, rotation: -1 }), { speed: (96 * 2 * Math.PI) / 60 })
     const block = toString(byId(html, 'block-pusher')!)
     expect(block).toContain(formatNumber(core.stroke * 1000, 5))
     expect(block).toContain(formatNumber(core.timeRatio!, 5))
@@ -106,7 +106,7 @@ describe('determinism', () => {
 
   it('should change the fingerprint when any character of the note changes', async () => {
     const one = (await build(demo)).built.model.fingerprint
-    const two = (await build(demo.replace('crank: 38 mm', 'crank: 38.0 mm'))).built.model.fingerprint
+    const two = (await build(demo.replace('crank: 37.8 mm', 'crank: 37.80 mm'))).built.model.fingerprint
     expect(two).not.toBe(one)
     expect((await build(demo.replace(/\n/g, '\r\n'))).built.model.fingerprint).toBe(one)
   })

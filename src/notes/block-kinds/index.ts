@@ -11,11 +11,12 @@ import { fourBarKind } from './four-bar.js'
 import { givenKind } from './given.js'
 import type { BlockKind } from './kind.js'
 import { sliderCrankKind } from './slider-crank.js'
+import { synthesisKind } from './synthesis.js'
 import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [givenKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
+  [givenKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

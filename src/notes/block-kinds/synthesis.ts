@@ -1,0 +1,84 @@
+/**
+ * `slider-crank-synthesis` blocks: crank and rod of an offset slider-crank for a
+ * required stroke and quick-return time ratio with a chosen offset. Other blocks
+ * use the answer as `id.crank` and `id.rod`.
+ */
+import { synthesiseSliderCrank } from '../../linkage/index.js'
+import { displayUnit, texUnit } from '../display.js'
+import { fromSI } from '../quantity.js'
+import { inputDependencies, readInputs, type InputSpec } from './inputs.js'
+import { outcome, type BlockKind } from './kind.js'
+import { withLinkage } from './linkage-common.js'
+import { asNamed } from './slider-crank-outcome.js'
+import { publish, quantity, tex, texBare } from './values.js'
+
+const specs: readonly InputSpec[] = [
+  { name: 'stroke', label: 'required stroke', symbol: 'S', kind: 'length', required: true },
+  { name: 'time_ratio', label: 'required quick-return time ratio (slower / faster stroke)', symbol: 'Q', kind: 'ratio', required: true },
+  { name: 'offset', label: 'chosen offset of the slider path', symbol: 'h', kind: 'length', required: true },
+]
+
+export const synthesisKind: BlockKind = {
+  name: 'slider-crank-synthesis',
+  label: 'Slider-crank synthesis',
+  needsId: true,
+  dependencies: (block, ids) => inputDependencies(block, specs, ids),
+  evaluate(block, context) {
+    const inputs = readInputs(block, specs, 'slider-crank-synthesis', context)
+    if (!inputs) return null
+    const { stroke, time_ratio: q, offset } = inputs.si as { stroke: number; time_ratio: number; offset: number }
+    const design = withLinkage(block, context, () => synthesiseSliderCrank(stroke, q, offset))
+    if (!design) return null
+    const { meta } = context
+    const L = (si: number) => texBare(meta, si, 'length')
+    const lengthUnit = displayUnit('length', meta.units)
+    const h = Math.abs(offset)
+    const product = (h * stroke) / Math.sin(design.alpha)
+    const results = [
+      quantity('crank', 'crank radius', 'a', 'length', design.crank),
+      quantity('rod', 'connecting-rod length', 'b', 'length', design.rod),
+      quantity('rod_ratio', 'crank-to-rod ratio a/b', '\\lambda', 'ratio', design.crank / design.rod),
+      quantity('alpha', 'crank angle between the dead centres beyond 180°', '\\alpha', 'angle', design.alpha),
+      quantity('full_turn_margin', 'margin to a crank that cannot turn, b − a − |h|', null, 'length', design.fullTurnMargin),
+      quantity('offset_limit', 'largest offset with a full turn, S·cot α', null, 'length', design.offsetLimit),
+    ]
+    publish(context, block.id, [...asNamed(inputs.values), ...results])
+    const method = [
+      {
+        label: 'Dead-centre angle from the time ratio',
+        formula: '\\alpha = 180^\\circ\\,\\frac{Q - 1}{Q + 1}',
+        substituted: `\\alpha = 180^\\circ \\cdot \\frac{${texBare(meta, q, 'ratio')} - 1}{${texBare(meta, q, 'ratio')} + 1}`,
+        result: `\\alpha = ${tex(meta, design.alpha, 'angle')}`,
+      },
+      {
+        label: 'The two dead-centre triangles',
+        formula: 'S^2 = L_1^2 + L_2^2 - 2L_1L_2\\cos\\alpha,\\qquad h\\,S = L_1L_2\\sin\\alpha,\\qquad L_1 = b - a,\\ L_2 = b + a',
+        substituted: `L_1L_2 = \\frac{${L(h)} \\cdot ${L(stroke)}}{\\sin ${texBare(meta, design.alpha, 'angle')}}`,
+        result: `L_1L_2 = ${texBare(meta, product * fromSI(1, 'length', lengthUnit) ** 2, 'ratio')}\\,\\mathrm{${texUnit(lengthUnit)}^2}`,
+        note: 'Law of cosines between the slider positions at the two dead centres, and twice the area of the triangle they make with the crank axis (base S, height h).',
+      },
+      {
+        label: 'Crank and rod',
+        formula: 'a = \\tfrac{1}{2}\\sqrt{S^2 - 2L_1L_2(1 - \\cos\\alpha)},\\qquad b = \\tfrac{1}{2}\\sqrt{S^2 + 2L_1L_2(1 + \\cos\\alpha)}',
+        substituted: null,
+        result: `a = ${tex(meta, design.crank, 'length')},\\ b = ${tex(meta, design.rod, 'length')}`,
+      },
+      {
+        label: 'The crank turns fully',
+        formula: '|h| < S\\cot\\alpha \\iff b - a - |h| > 0',
+        substituted: `${L(h)} < ${L(design.offsetLimit)}`,
+        result: `b - a - |h| = ${tex(meta, design.fullTurnMargin, 'length')}`,
+        note: 'Past S·cot α the triangle would put the crank axis over the stroke. Which stroke is the slow one follows from the sign of the offset and the sense of rotation: analyse the chosen lengths in a slider-crank block.',
+      },
+    ]
+    return outcome(block, 'Slider-crank synthesis', {
+      inputs: inputs.values,
+      results,
+      method,
+      summary: ['crank', 'rod'],
+      assumptions: [
+        { text: 'The synthesis places both dead centres on one side of the crank axis (a crank that turns fully); lengths are exact and are then rounded to what can be made.', verify: false, from: block.id ?? 'synthesis' },
+      ],
+    })
+  },
+}

@@ -7,7 +7,7 @@ import type { VFile } from 'vfile'
 import { readNote, type NoteModel, type Tool } from './notes/note.js'
 import { hasErrors } from './notes/report.js'
 import { resultsDocument } from './notes/results-json.js'
-import { chartSpec } from './render/chart-spec.js'
+import { chartSpec, specText } from './render/chart-spec.js'
 import { chartSvg, type ChartCache } from './render/chart-svg.js'
 import { renderPackage } from './render/package.js'
 
@@ -63,9 +63,9 @@ export async function buildNote(file: VFile, options: BuildNoteOptions): Promise
       const name = block.id ?? `chart-${block.index + 1}`
       const spec = chartSpec(chart, model.meta.digits)
       const specFile = `charts/${name}.vl.json`
-      const specText = `${JSON.stringify(spec, null, 2)}\n`
-      files.set(specFile, specText)
-      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache, specText)
+      const text = specText(spec)
+      files.set(specFile, text)
+      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache, text)
       if (rendered.cached) cached++
       charts.set(block.index, { svg: rendered.svg, specFile })
     }),

@@ -224,3 +224,15 @@ function ticks(lo: number, hi: number): number[] {
 function round(value: number): number {
   return Number(value.toPrecision(9))
 }
+
+/**
+ * The spec as text for its file: indented, but each data row (an object of plain
+ * values) on one line, so a reviewer can read it and a diff shows changed points.
+ */
+export function specText(spec: unknown): string {
+  const text = JSON.stringify(spec, null, 2)
+  return `${text.replace(/\{\n(?:\s*"[^"\n]*": (?:-?[\d.eE+-]+|"[^"\n]*"|true|false|null),?\n)+\s*\}/g, (row) => {
+    const fields = row.slice(1, -1).split('\n').map((line) => line.trim()).filter(Boolean)
+    return `{ ${fields.join(' ')} }`
+  })}\n`
+}

@@ -7,8 +7,8 @@ import type { VFile } from 'vfile'
 import { readNote, type NoteModel, type Tool } from './notes/note.js'
 import { hasErrors } from './notes/report.js'
 import { resultsDocument } from './notes/results-json.js'
-import { chartSpec, specText } from './render/chart-spec.js'
-import { chartSvg, type ChartCache } from './render/chart-svg.js'
+import type { ChartCache } from './render/chart-svg.js'
+import { renderCharts } from './render/charts.js'
 import { renderPackage } from './render/package.js'
 
 /** Options for {@link buildNote}. */
@@ -51,26 +51,11 @@ export async function buildNote(file: VFile, options: BuildNoteOptions): Promise
     }).fatal = true
   }
   const results = resultsDocument(model, file, options.notePath, date)
-  const files = new Map<string, string>()
-  if (hasErrors(file)) return { model, html: null, results, files, ok: false, date, charts: { rendered: 0, cached: 0 } }
+  if (hasErrors(file)) return { model, html: null, results, files: new Map(), ok: false, date, charts: { rendered: 0, cached: 0 } }
   // 2. Charts: specs from the core's sweeps, SVG from vega (depends on 1).
-  const charts = new Map<number, { svg: string; specFile: string }>()
-  let cached = 0
-  await Promise.all(
-    model.blocks.map(async (block) => {
-      const chart = model.outcomes[block.index]?.chart
-      if (!chart) return
-      const name = block.id ?? `chart-${block.index + 1}`
-      const spec = chartSpec(chart, model.meta.digits)
-      const specFile = `charts/${name}.vl.json`
-      const text = specText(spec)
-      files.set(specFile, text)
-      const rendered = await chartSvg(spec, `lw-${name}`, options.chartCache, text)
-      if (rendered.cached) cached++
-      charts.set(block.index, { svg: rendered.svg, specFile })
-    }),
-  )
+  const { charts, files, cached } = await renderCharts(model, options.chartCache)
   // 3. The package (depends on 1 and 2).
   const html = renderPackage(tree, model, file, { template: options.template, notePath: options.notePath, date, commit: options.commit, charts })
-  return { model, html, results, files: new Map([...files].sort(([a], [b]) => a.localeCompare(b))), ok: !hasErrors(file), date, charts: { rendered: charts.size, cached } }
+  const sorted = new Map([...files].sort(([a], [b]) => a.localeCompare(b)))
+  return { model, html, results, files: sorted, ok: !hasErrors(file), date, charts: { rendered: charts.size, cached } }
 }

@@ -226,13 +226,22 @@ function round(value: number): number {
 }
 
 /**
- * The spec as text for its file: indented, but each data row (an object of plain
- * values) on one line, so a reviewer can read it and a diff shows changed points.
+ * The spec as text for its file: indented, but each data row on one line, so a
+ * reviewer can read it and a diff shows the points that changed.
  */
 export function specText(spec: unknown): string {
-  const text = JSON.stringify(spec, null, 2)
-  return `${text.replace(/\{\n(?:\s*"[^"\n]*": (?:-?[\d.eE+-]+|"[^"\n]*"|true|false|null),?\n)+\s*\}/g, (row) => {
-    const fields = row.slice(1, -1).split('\n').map((line) => line.trim()).filter(Boolean)
-    return `{ ${fields.join(' ')} }`
+  const rows: string[][] = []
+  const text = JSON.stringify(
+    spec,
+    (key, value: unknown) => {
+      if (key !== 'values' || !Array.isArray(value)) return value
+      rows.push(value.map((row) => JSON.stringify(row)))
+      return `@@rows ${rows.length - 1}@@`
+    },
+    2,
+  )
+  return `${text.replace(/^( *)"values": "@@rows (\d+)@@"/gm, (_, indent: string, index: string) => {
+    const lines = rows[Number(index)]!
+    return lines.length === 0 ? `${indent}"values": []` : `${indent}"values": [\n${lines.map((l) => `${indent}  ${l}`).join(',\n')}\n${indent}]`
   })}\n`
 }

@@ -78,6 +78,35 @@ describe('linkwright build', () => {
   })
 })
 
+describe('dates', () => {
+  it('should take `date: git` from the note’s last commit, not the clock', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'linkwright-git-'))
+    const git = (...args: string[]) =>
+      spawnSync('git', args, {
+        cwd: dir,
+        encoding: 'utf8',
+        env: { ...process.env, GIT_AUTHOR_DATE: '2025-03-04T10:00:00Z', GIT_COMMITTER_DATE: '2025-03-04T10:00:00Z', GIT_AUTHOR_NAME: 't', GIT_AUTHOR_EMAIL: 't@example.org', GIT_COMMITTER_NAME: 't', GIT_COMMITTER_EMAIL: 't@example.org' },
+      })
+    git('init', '-q')
+    writeFileSync(join(dir, 'note.md'), '---\ntitle: Dated\nnumber: D-1\nrevision: A\nstatus: draft\ndate: git\n---\n\nText.\n')
+    git('add', 'note.md')
+    git('commit', '-q', '-m', 'note')
+    const result = run(['build', 'note.md', '--no-pdf', '--quiet'], dir)
+    expect(result.code).toBe(0)
+    const results = JSON.parse(readFileSync(join(dir, 'out/note/results.json'), 'utf8'))
+    expect(results.document.date).toBe('2025-03-04')
+    expect(readFileSync(join(dir, 'out/note/index.html'), 'utf8')).toContain('2025-03-04')
+  })
+
+  it('should say so when a `date: git` note is not committed', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'linkwright-nogit-'))
+    writeFileSync(join(dir, 'note.md'), '---\ntitle: Dated\nnumber: D-1\nrevision: A\nstatus: draft\ndate: git\n---\n\nText.\n')
+    const result = run(['build', 'note.md', '--no-pdf'], dir)
+    expect(result.code).toBe(1)
+    expect(result.stderr).toContain('Cannot find the note’s last commit date for `date: git`')
+  })
+})
+
 describe('linkwright check', () => {
   it('should print each failing check and exit 1', () => {
     const dir = workspace()

@@ -167,3 +167,14 @@ describe('values in prose', () => {
     expect(texts.join('')).toContain('at 10:30 sharp, see:this.')
   })
 })
+
+describe('tables of a crank that only rocks', () => {
+  it('should step through round angles inside the range, with the limits as marked rows', () => {
+    const { model } = read('```slider-crank #rocker\ncrank: 50 mm\nrod: 70 mm\noffset: 30 mm\nspeed: 10 rpm\n```\n\n```table\nof: rocker\nquantities: position\nevery: 60 deg\n```\n')
+    const rows = model.outcomes[1]!.table!.rows
+    // The range runs from −53.13° to 233.13°.
+    expect(rows.filter((r) => !r.marker).map((r) => r.cells[0])).toEqual(['0', '60.000', '120.00', '180.00'])
+    expect(rows[0]!.marker).toBe('crank limit')
+    expect(rows[rows.length - 1]!.marker).toBe('crank limit')
+  })
+})

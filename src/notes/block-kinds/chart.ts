@@ -13,11 +13,10 @@ import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity, type QuantityKind } from '../quantity.js'
 import { reportError } from '../report.js'
-import { openSweepBlock, sweepDependencies } from './sweep-block.js'
+import { intoRange, openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type ChartOutcome, type ChartSeries, type SweepSource } from './kind.js'
 
 const KNOWN = ['of', 'series', 'x', 'layout', 'at_least', 'at_most', 'size', 'x_range', 'y_range', 'samples']
-const TURN = 2 * Math.PI
 
 export const chartKind: BlockKind = {
   name: 'chart',
@@ -162,9 +161,7 @@ function chartMarkers(
 ): ChartOutcome['markers'] {
   const unit = displayUnit(byTime ? 'time' : 'angle', units)
   return source.markers.map((marker) => {
-    let theta = marker.theta
-    if (!source.fullTurn) while (theta < source.start - 1e-12) theta += TURN
-    if (source.fullTurn && theta > source.end + 1e-12) theta -= TURN
+    const theta = intoRange(marker.theta, source.start)
     if (!byTime) return { label: marker.label, x: fromSI(theta, 'angle', unit) }
     // Time at the marker: interpolate the swept time column.
     const time = columns.time!

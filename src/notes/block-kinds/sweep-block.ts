@@ -53,3 +53,10 @@ export function openSweepBlock(
   }
   return { entries, of, linkage, source: linkage.sweep, fail }
 }
+
+/** A marker's angle (given in [0, 2π)) moved into the sweep's range [start, start + 2π). */
+export function intoRange(theta: number, start: number): number {
+  const turn = 2 * Math.PI
+  const offset = (((theta - start) % turn) + turn) % turn
+  return start + (offset > turn - 1e-9 ? 0 : offset)
+}

@@ -11,7 +11,7 @@ import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity } from '../quantity.js'
 import { reportError } from '../report.js'
-import { openSweepBlock, sweepDependencies } from './sweep-block.js'
+import { intoRange, openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type TableOutcome } from './kind.js'
 
 const KNOWN = ['of', 'quantities', 'every', 'at']
@@ -57,17 +57,18 @@ export const tableKind: BlockKind = {
         if (!reading?.ok || !(reading.si > 0)) return fail('expected a positive angle step in `every`, e.g. `every: 30 deg`', every.valuePlace)
         step = reading.si
       }
-      const span = source.end - source.start
-      const count = Math.floor(span / step + 1e-9)
-      if (count + 1 > MAX_ROWS) return fail(`\`every\` gives ${count + 1} rows; use a larger step (at most ${MAX_ROWS} rows)`, every?.valuePlace)
-      for (let i = 0; i <= count; i++) {
-        const theta = source.start + i * step
+      // Round angles (multiples of the step) across the range; its ends come as marked rows.
+      const first = Math.ceil(source.start / step - 1e-9)
+      const last = Math.floor(source.end / step + 1e-9)
+      if (last - first + 1 > MAX_ROWS) return fail(`\`every\` gives ${last - first + 1} rows; use a larger step (at most ${MAX_ROWS} rows)`, every?.valuePlace)
+      for (let k = first; k <= last; k++) {
+        const theta = k * step
         if (source.fullTurn && theta >= source.start + TURN - 1e-9) break
         angles.push(theta)
       }
     }
-    const rows: { theta: number; marker: string | null }[] = angles.map((theta) => ({ theta: norm(theta, source.fullTurn), marker: null }))
-    for (const marker of source.markers) rows.push({ theta: norm(marker.theta, source.fullTurn, source.start), marker: marker.label })
+    const rows: { theta: number; marker: string | null }[] = angles.map((theta) => ({ theta: source.fullTurn ? intoRange(theta, 0) : theta, marker: null }))
+    for (const marker of source.markers) rows.push({ theta: intoRange(marker.theta, source.start), marker: marker.label })
     rows.sort((p, q) => p.theta - q.theta || (p.marker ? 1 : -1))
     const columns = source.at(Float64Array.from(rows, (r) => r.theta))
     const angleUnit = displayUnit('angle', meta.units)
@@ -95,14 +96,4 @@ export const tableKind: BlockKind = {
     }
     return outcome(block, 'Table', { table })
   },
-}
-
-/** A full-turn angle in [0, 2π); a limited range keeps its own (possibly negative) angles. */
-function norm(theta: number, fullTurn: boolean, start?: number): number {
-  if (fullTurn) return ((theta % TURN) + TURN) % TURN
-  if (start === undefined) return theta
-  // Markers come in [0, 2π): bring them into the range that starts at `start`.
-  let t = theta
-  while (t < start - 1e-12) t += TURN
-  return t
 }

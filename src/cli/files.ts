@@ -61,6 +61,7 @@ export interface StagedFolder {
 export function stageFolder(target: string, files: ReadonlyMap<string, string | Uint8Array>): StagedFolder {
   const parent = dirname(target)
   mkdirSync(parent, { recursive: true })
+  recoverFolder(target)
   const tag = `${process.pid}-${++counter}`
   const fresh = join(parent, `.${basename(target)}.new-${tag}`)
   const old = join(parent, `.${basename(target)}.old-${tag}`)
@@ -90,6 +91,24 @@ export function stageFolder(target: string, files: ReadonlyMap<string, string | 
     discard() {
       rmSync(fresh, { recursive: true, force: true })
     },
+  }
+}
+
+/**
+ * Tidy what an interrupted run (Ctrl-C, a crash) left beside a package folder:
+ * fresh folders that were never committed go; an old package that was moved
+ * aside but not replaced goes back in place, so no good package is lost.
+ */
+export function recoverFolder(target: string): void {
+  const parent = dirname(target)
+  const name = basename(target)
+  if (!existsSync(parent)) return
+  for (const entry of readdirSync(parent).sort()) {
+    if (entry.startsWith(`.${name}.new-`)) rmSync(join(parent, entry), { recursive: true, force: true })
+    else if (entry.startsWith(`.${name}.old-`)) {
+      if (existsSync(target)) rmSync(join(parent, entry), { recursive: true, force: true })
+      else renameSync(join(parent, entry), target)
+    }
   }
 }
 

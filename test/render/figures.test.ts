@@ -110,6 +110,16 @@ describe('charts', () => {
     for (const edge of [shaded[0]!.x as number, shaded[0]!.x2 as number]) expectClose(deg(core((edge * Math.PI) / 180)), 70, { abs: 0.01 })
   })
 
+  it('should run time on through the cycle when charted against time', () => {
+    const { model } = read(`${note}\n\`\`\`chart\nof: drive\nseries: velocity\nx: time\n\`\`\`\n`)
+    const chart = model.outcomes[5]!.chart!
+    const t = chart.x.values
+    for (let i = 1; i < t.length; i++) expect(t[i]!).toBeGreaterThan(t[i - 1]!)
+    // 120 rpm: one turn in 0.5 s.
+    expectClose(t[t.length - 1]!, 0.5, { rel: 1e-12 })
+    expectClose(t[0]!, 0, { abs: 1e-15 })
+  })
+
   it('should find failing spans by interpolating the crossings', () => {
     const xs = Float64Array.of(0, 1, 2, 3, 4)
     const ys = Float64Array.of(5, 3, 1, 3, 5)

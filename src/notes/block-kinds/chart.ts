@@ -47,10 +47,8 @@ export const chartKind: BlockKind = {
     const samples = samplesText === undefined ? 361 : Number(samplesText)
     if (!Number.isInteger(samples) || samples < 11 || samples > 5001) return fail('expected `samples:` as a whole number from 11 to 5001', entries.get('samples')?.valuePlace)
 
-    // Angles over the linkage's range; the values come from the core's sweep.
-    const angles = new Float64Array(samples)
-    for (let i = 0; i < samples; i++) angles[i] = i === samples - 1 ? source.end : source.start + ((source.end - source.start) * i) / (samples - 1)
-    const columns = source.at(angles)
+    // The core's own sweep across the linkage's range.
+    const { angles, columns } = source.sample(samples)
     const quantity = (name: string) => source.quantities.find((q) => q.name === name)!
     const convert = (values: Float64Array, kind: QuantityKind): Float64Array => {
       const unit = displayUnit(kind, meta.units)

@@ -211,6 +211,19 @@ function fourBarSweep(analysis: FourBarAnalysis): SweepSource {
         ]
       : []),
   ]
+  const columnsOf = (sweep: FourBarSweep): Record<string, Float64Array> => {
+    return {
+      coupler_angle: sweep.couplerAngle,
+      output_angle: sweep.outputAngle,
+      coupler_angular_velocity: sweep.couplerAngularVelocity,
+      output_angular_velocity: sweep.outputAngularVelocity,
+      coupler_angular_acceleration: sweep.couplerAngularAcceleration,
+      output_angular_acceleration: sweep.outputAngularAcceleration,
+      transmission_angle: sweep.transmissionAngle,
+      time: sweep.time,
+      ...(point ? { coupler_point_x: sweep.couplerPointX, coupler_point_y: sweep.couplerPointY, coupler_point_speed: sweep.couplerPointSpeed } : {}),
+    }
+  }
   const state = new Float64Array(FOUR_BAR_STATE)
   return {
     peaks: {
@@ -249,18 +262,11 @@ function fourBarSweep(analysis: FourBarAnalysis): SweepSource {
     quantities,
     markers,
     at(angles) {
-      const sweep = new FourBarSweep(linkage, angles.length).updateAt(angles, analysis, timeOrigin)
-      return {
-        coupler_angle: sweep.couplerAngle,
-        output_angle: sweep.outputAngle,
-        coupler_angular_velocity: sweep.couplerAngularVelocity,
-        output_angular_velocity: sweep.outputAngularVelocity,
-        coupler_angular_acceleration: sweep.couplerAngularAcceleration,
-        output_angular_acceleration: sweep.outputAngularAcceleration,
-        transmission_angle: sweep.transmissionAngle,
-        time: sweep.time,
-        ...(point ? { coupler_point_x: sweep.couplerPointX, coupler_point_y: sweep.couplerPointY, coupler_point_speed: sweep.couplerPointSpeed } : {}),
-      }
+      return columnsOf(new FourBarSweep(linkage, angles.length).updateAt(angles, analysis, timeOrigin))
+    },
+    sample(count) {
+      const sweep = new FourBarSweep(linkage, count).update(analysis.range, analysis)
+      return { angles: sweep.inputAngle, columns: columnsOf(sweep) }
     },
   }
 }

@@ -69,8 +69,10 @@ export interface SweepSource {
   readonly fullTurn: boolean
   readonly quantities: readonly SweptQuantity[]
   readonly markers: readonly AngleMarker[]
-  /** Values at the given angles, one Float64Array per quantity name. */
+  /** Values at the given angles, one Float64Array per quantity name (time wrapped into one cycle). */
   at(angles: Float64Array): Record<string, Float64Array>
+  /** The core's sweep of `count` angles across the range, ends included (time runs on through the cycle). */
+  sample(count: number): { readonly angles: Float64Array; readonly columns: Record<string, Float64Array> }
   readonly geometry: LinkageGeometry
   /** Exact extremes the analysis found, by quantity name (e.g. the peak velocity), rad and SI. */
   readonly peaks: Readonly<Record<string, { readonly theta: number; readonly value: number; readonly label: string }>>

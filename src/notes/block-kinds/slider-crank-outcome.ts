@@ -244,6 +244,20 @@ export function sliderCrankSweep(analysis: SliderCrankAnalysis): SweepSource {
     markers.push({ name: 'limit-end', label: 'crank limit', theta: analysis.limitAngles[1] })
   }
   markers.sort((p, q) => p.theta - q.theta)
+  const columnsOf = (sweep: SliderCrankSweep): Record<string, Float64Array> => {
+    const displacement = sweep.position.map((x) => Math.abs(origin - x))
+    return {
+      position: sweep.position,
+      displacement,
+      velocity: sweep.velocity,
+      acceleration: sweep.acceleration,
+      rod_angle: sweep.rodAngle,
+      rod_angular_velocity: sweep.rodAngularVelocity,
+      rod_angular_acceleration: sweep.rodAngularAcceleration,
+      transmission_angle: sweep.transmissionAngle,
+      time: sweep.time,
+    }
+  }
   return {
     geometry: sliderCrankGeometry(analysis),
     peaks: {
@@ -268,19 +282,11 @@ export function sliderCrankSweep(analysis: SliderCrankAnalysis): SweepSource {
     ],
     markers,
     at(angles) {
-      const sweep = new SliderCrankSweep(linkage, angles.length).updateAt(angles, analysis, timeOrigin)
-      const displacement = sweep.position.map((x) => Math.abs(origin - x))
-      return {
-        position: sweep.position,
-        displacement,
-        velocity: sweep.velocity,
-        acceleration: sweep.acceleration,
-        rod_angle: sweep.rodAngle,
-        rod_angular_velocity: sweep.rodAngularVelocity,
-        rod_angular_acceleration: sweep.rodAngularAcceleration,
-        transmission_angle: sweep.transmissionAngle,
-        time: sweep.time,
-      }
+      return columnsOf(new SliderCrankSweep(linkage, angles.length).updateAt(angles, analysis, timeOrigin))
+    },
+    sample(count) {
+      const sweep = new SliderCrankSweep(linkage, count).update(analysis.range, analysis)
+      return { angles: sweep.crankAngle, columns: columnsOf(sweep) }
     },
   }
 }

@@ -159,7 +159,7 @@ function fourBarMethod(analysis: FourBarAnalysis, context: EvaluationContext): M
     formula: '\\omega_4 = \\omega_2\\frac{a\\sin(\\theta_2 - \\theta_3)}{c\\sin(\\theta_4 - \\theta_3)},\\qquad \\alpha_4 = \\omega_2^2\\frac{d^2\\theta_4}{d\\theta_2^2} + \\alpha_2\\frac{d\\theta_4}{d\\theta_2}',
     substituted: `\\omega_2 = ${tex(meta, analysis.speed, 'angular-velocity')},\\ \\alpha_2 = ${tex(meta, analysis.angularAcceleration, 'angular-acceleration')}`,
     result: `\\omega_{4,\\max} = ${tex(meta, analysis.peakOutputVelocity.value, 'angular-velocity')}\\ \\text{at}\\ ${tex(meta, analysis.peakOutputVelocity.theta, 'angle')},\\ \\alpha_{4,\\max} = ${tex(meta, analysis.peakOutputAcceleration.value, 'angular-acceleration')}\\ \\text{at}\\ ${tex(meta, analysis.peakOutputAcceleration.theta, 'angle')}`,
-    note: 'Position by circle intersection on the chosen circuit; velocity and acceleration from the loop equation differentiated once and twice; peaks bracketed by a 1441-point sweep and refined by bisection on the slope.',
+    note: 'Position by circle intersection on the chosen circuit; velocity and acceleration from the loop equation differentiated once and twice; peaks bracketed by a 1441-point sweep and refined by bisection on the slope. Signed: + counter-clockwise.',
   })
   return steps
 }

@@ -176,7 +176,7 @@ export function sliderCrankMethod(analysis: SliderCrankAnalysis, context: Evalua
       : 'v = \\omega\\frac{dx}{d\\theta},\\quad \\frac{dx}{d\\theta} = -a\\sin\\theta - \\frac{u\\,a\\cos\\theta}{\\sigma\\sqrt{b^2 - u^2}},\\quad u = a\\sin\\theta - h',
     substituted: `\\omega = ${tex(meta, omega, 'angular-velocity')}`,
     result: `v_{\\max} = ${tex(meta, analysis.peakVelocity.value, 'velocity')}\\ \\text{at}\\ \\theta = ${tex(meta, analysis.peakVelocity.theta, 'angle')}`,
-    note: 'Largest |v| over the range: bracketed by a 1441-point sweep, refined by bisection on its slope.',
+    note: `Largest |v| over the range: bracketed by a 1441-point sweep, refined by bisection on its slope. Signed: + along +x (${side === 1 ? 'away from' : 'towards'} the crank axis).`,
   })
   steps.push({
     label: 'Peak slider acceleration',

@@ -136,6 +136,28 @@ describe('piston velocity and acceleration (SC-3)', () => {
   })
 })
 
+describe('crank angle of the greatest piston speed (textbook worked example)', () => {
+  // Example 15.3 of the book uploaded as number 213 to FOSSEE's Scilab Textbook
+  // Companion (scilab script CH15/EX15.3, read): crank 300 mm, rod 1 m, 200 rpm;
+  // the book's method sets d/dθ of the two-term velocity ωr(sinθ + sin2θ/2n) to
+  // zero, 2cos²θ + n cosθ − 1 = 0, and prints θ rounded to whole degrees. That the
+  // book is Khurmi & Gupta, Theory of Machines, is from memory. Its answers are
+  // computed here with its own method; the core's exact answers must sit within
+  // that method's error (a few tenths of a percent at n = 3.3).
+  it('should agree with the two-term answer within its approximation error', () => {
+    const n = 1 / 0.3
+    const omega = (200 * 2 * Math.PI) / 60
+    const cos = (-n + Math.sqrt(n * n + 8)) / 4
+    const bookTheta = Math.round(deg(Math.acos(cos)))
+    const bookSpeed = omega * 0.3 * (Math.sin(rad(bookTheta)) + Math.sin(rad(2 * bookTheta)) / (2 * n))
+    expect(bookTheta).toBe(75)
+    expectPrinted(bookSpeed, '6.54')
+    const exact = analyseSliderCrank(sliderCrank({ crank: 0.3, rod: 1 }), { speed: omega })
+    expectClose(deg(exact.peakVelocity.theta), 75, { abs: 0.5 })
+    expectClose(Math.abs(exact.peakVelocity.value), bookSpeed, { rel: 0.005 })
+  })
+})
+
 describe('mean piston speed (published worked example)', () => {
   // Wikipedia, "Mean piston speed", worked example: a 90 mm stroke at 3000 rpm
   // gives 9 m/s (published copy, confirmed in the field-check sheet).

@@ -23,7 +23,7 @@ import type { VFile } from 'vfile'
 import type { Assumption, BlockOutcome, CheckOutcome, Citation } from './block-kinds/kind.js'
 import { findBlocks } from './blocks.js'
 import { evaluateBlocks } from './evaluate.js'
-import { emptyMeta, readFrontMatter } from './front-matter.js'
+import { readFrontMatter } from './front-matter.js'
 import { messages } from './messages.js'
 import { resolveProse } from './prose.js'
 import { builtinReferences } from './references.js'
@@ -100,7 +100,7 @@ export function readNote(file: VFile, tool: Tool): { tree: Root; model: NoteMode
     delete (replacement as unknown as { value?: string }).value
   }
   const model: NoteModel = {
-    meta: meta ?? emptyMeta,
+    meta,
     blocks,
     outcomes,
     checks: outcomes.flatMap((o) => o?.checks ?? []),

@@ -4,7 +4,7 @@
  */
 import { texQuantity } from '../display.js'
 import { math, toUnit, type QuantityKind } from '../quantity.js'
-import type { DisplayUnits, NamedValue, NoteMeta } from '../types.js'
+import type { NamedValue, NoteMeta } from '../types.js'
 import type { EvaluationContext } from './kind.js'
 
 /** A quantity result; a null or non-finite number becomes "no value" with the reason. */
@@ -69,7 +69,3 @@ export function texBare(meta: NoteMeta, si: number, kind: QuantityKind): string 
   return texQuantity(si, kind, meta.units, meta.digits).replace(/\\,\\mathrm\{[^}]*\}$/, '').replace(/\^\\circ$/, '^\\circ')
 }
 
-/** The display units of the note (shorthand). */
-export function unitsOf(context: EvaluationContext): DisplayUnits {
-  return context.meta.units
-}

@@ -1,11 +1,19 @@
 /**
- * Block bodies: YAML-style `name: value ; source` lines (or `- item` lists),
- * read with the yaml package into entries that keep their place in the note.
+ * Block bodies, read with their own line grammar (not YAML, so that a source
+ * may hold any text):
+ *
+ *     name: value ; source          an entry: the value is an expression or a word,
+ *                                   the source after the first `;` is free text
+ *     - text                        an item (assumptions, conclusions)
+ *     - {text: …, verify: yes}      an item with fields
+ *     # …                           a comment line
+ *
+ * A line indented deeper than the entry or item above it continues it. Every
+ * part keeps its place in the note.
  */
-import type { Point, Position } from 'unist'
-import { LineCounter, isMap, isScalar, isSeq, parseDocument, type Node as YamlNode } from 'yaml'
+import type { Position } from 'unist'
 
-/** Maps offsets inside a block body to places in the note. */
+/** Maps lines of a block body to places in the note. */
 export interface BodyOrigin {
   /** Line of the first body line in the note (1-based). */
   readonly line: number
@@ -17,13 +25,12 @@ export interface BodyOrigin {
 export interface BodyEntry {
   readonly name: string
   readonly namePlace: Position
-  /** The whole value text, as written. */
-  readonly raw: string
   /** The value before any `;`, trimmed: an expression or a word. */
   readonly value: string
   readonly valuePlace: Position
   /** The source after `;`, trimmed, or null. */
   readonly source: string | null
+  readonly sourcePlace: Position | null
 }
 
 /** One `- text` list item (or `- {text: …, verify: yes}`). */
@@ -33,86 +40,151 @@ export interface BodyItem {
   readonly fields: Readonly<Record<string, string>>
 }
 
-/** A read body: entries of a mapping, or items of a list, and any syntax problems. */
+/** A read body: entries, or items, and any syntax problems. */
 export interface Body {
   readonly entries: readonly BodyEntry[]
   readonly items: readonly BodyItem[]
   readonly problems: readonly { readonly reason: string; readonly place: Position }[]
 }
 
+interface Part {
+  text: string
+  line: number
+  start: number
+  end: number
+}
+
+interface OpenEntry {
+  indent: number
+  name: Part
+  value: Part
+  source: Part | null
+}
+
+interface OpenItem {
+  indent: number
+  text: Part
+}
+
 /** Read a block body. An empty body gives no entries and no problems. */
 export function readBody(text: string, origin: BodyOrigin): Body {
-  const lineCounter = new LineCounter()
-  const doc = parseDocument(text, { schema: 'failsafe', lineCounter, prettyErrors: false, uniqueKeys: false })
-  const toPoint = (offset: number): Point => {
-    const { line, col } = lineCounter.linePos(offset)
-    return { line: origin.line + line - 1, column: col + origin.indent, offset: undefined as unknown as number }
-  }
-  const span = (range: readonly [number, number, number?] | null | undefined): Position => {
-    const [start, end] = range ?? [0, 0]
-    return { start: stripOffset(toPoint(start)), end: stripOffset(toPoint(end)) }
-  }
-  const problems = doc.errors.map((error) => ({
-    // yaml reports body-relative lines; the place carries the note's line instead.
-    reason: error.message.replace(/ at line \d+, column \d+:?[\s\S]*$/, ''),
-    place: span([error.pos[0], error.pos[1]]),
-  }))
   const entries: BodyEntry[] = []
   const items: BodyItem[] = []
-  const contents = doc.contents as YamlNode | null
-  if (problems.length > 0 || contents === null) return { entries, items, problems }
-  if (isMap(contents)) {
-    for (const pair of contents.items) {
-      const key = pair.key as YamlNode | null
-      const value = pair.value as YamlNode | null
-      if (!isScalar(key)) {
-        problems.push({ reason: 'expected `name: value` lines', place: span(key?.range) })
-        continue
-      }
-      if (value !== null && !isScalar(value)) {
-        problems.push({ reason: `expected one value after \`${String(key.value)}:\`, not a nested list or mapping`, place: span(value.range) })
-        continue
-      }
-      const raw = value === null ? '' : String(value.value)
-      const cut = raw.indexOf(';')
-      const valueText = (cut < 0 ? raw : raw.slice(0, cut)).trim()
-      const source = cut < 0 ? null : raw.slice(cut + 1).trim() || null
-      // The place of the expression alone (a plain scalar starts at its range).
-      const range = value?.range
-      const valueRange: [number, number] | undefined = range
-        ? [range[0], Math.min(range[1], range[0] + Math.max(1, valueText.length))]
-        : undefined
+  const problems: { reason: string; place: Position }[] = []
+  const place = (line: number, start: number, end: number): Position => ({
+    start: { line: origin.line + line, column: origin.indent + start + 1 },
+    end: { line: origin.line + line, column: origin.indent + Math.max(end, start + 1) + 1 },
+  })
+  const at = (part: Part): Position => place(part.line, part.start, part.end)
+  let entry: OpenEntry | null = null
+  let item: OpenItem | null = null
+  const close = (): void => {
+    if (entry) {
       entries.push({
-        name: String(key.value).trim(),
-        namePlace: span(key.range),
-        raw,
-        value: valueText,
-        valuePlace: span(valueRange ?? key.range),
-        source,
+        name: entry.name.text,
+        namePlace: at(entry.name),
+        value: entry.value.text,
+        valuePlace: entry.value.text === '' ? at(entry.name) : at(entry.value),
+        source: entry.source && entry.source.text !== '' ? entry.source.text : null,
+        sourcePlace: entry.source && entry.source.text !== '' ? at(entry.source) : null,
       })
     }
-  } else if (isSeq(contents)) {
-    for (const item of contents.items as (YamlNode | null)[]) {
-      if (isScalar(item)) {
-        items.push({ text: String(item.value).trim(), place: span(item.range), fields: {} })
-      } else if (isMap(item)) {
-        const fields: Record<string, string> = {}
-        for (const pair of item.items) {
-          const k = pair.key as YamlNode | null
-          const v = pair.value as YamlNode | null
-          if (isScalar(k) && (v === null || isScalar(v))) fields[String(k.value)] = v === null ? '' : String(v.value)
-        }
-        items.push({ text: (fields.text ?? '').trim(), place: span(item.range), fields })
-      } else {
-        problems.push({ reason: 'expected `- text` items', place: span(item?.range) })
-      }
+    if (item) {
+      const { text: body, fields } = itemFields(item.text.text)
+      items.push({ text: body, place: at(item.text), fields })
     }
-  } else if (isScalar(contents)) {
-    problems.push({ reason: 'expected `name: value` lines or `- item` lines', place: span(contents.range) })
+    entry = null
+    item = null
   }
+  const lines = text.split(/\r?\n/)
+  lines.forEach((raw, index) => {
+    const line = raw.replace(/\s+$/, '')
+    const indent = line.length - line.trimStart().length
+    const content = line.trim()
+    if (content === '' || content.startsWith('#')) return
+    // A deeper-indented line continues the entry or item above it.
+    const open: OpenEntry | OpenItem | null = entry ?? item
+    if (open && indent > open.indent) {
+      const part: Part = { text: content, line: index, start: indent, end: line.length }
+      if (entry) extend(entry.source ?? entry.value, part)
+      else if (item) extend(item.text, part)
+      return
+    }
+    close()
+    if (content === '-' || content.startsWith('- ')) {
+      if (entries.length > 0) {
+        problems.push({ reason: 'expected `name: value` lines here, like the lines above, not a `- item`', place: place(index, indent, line.length) })
+        return
+      }
+      const start = indent + 1 + (line.slice(indent + 1).length - line.slice(indent + 1).trimStart().length)
+      item = { indent, text: { text: line.slice(start).trim(), line: index, start, end: line.length } }
+      return
+    }
+    const colon = findColon(line, indent)
+    if (colon < 0) {
+      problems.push({ reason: 'expected `name: value ; source` (or `- item`)', place: place(index, indent, line.length) })
+      return
+    }
+    if (items.length > 0) {
+      problems.push({ reason: 'expected `- item` lines here, like the lines above, not `name: value`', place: place(index, indent, line.length) })
+      return
+    }
+    const name = line.slice(indent, colon).trim()
+    if (name === '') {
+      problems.push({ reason: 'expected a name before `:`', place: place(index, indent, colon + 1) })
+      return
+    }
+    const rest = line.slice(colon + 1)
+    const cut = rest.indexOf(';')
+    const valueText = cut < 0 ? rest : rest.slice(0, cut)
+    const valueStart = colon + 1 + (valueText.length - valueText.trimStart().length)
+    const value: Part = { text: valueText.trim(), line: index, start: valueStart, end: valueStart + valueText.trim().length }
+    let source: Part | null = null
+    if (cut >= 0) {
+      const sourceText = rest.slice(cut + 1)
+      const sourceStart = colon + 2 + cut + (sourceText.length - sourceText.trimStart().length)
+      source = { text: sourceText.trim(), line: index, start: sourceStart, end: sourceStart + sourceText.trim().length }
+    }
+    entry = { indent, name: { text: name, line: index, start: indent, end: indent + name.length }, value, source }
+  })
+  close()
   return { entries, items, problems }
 }
 
-function stripOffset(point: Point): Point {
-  return { line: point.line, column: point.column }
+/** Index of the `:` that ends an entry's name: the first one outside brackets and quotes, or -1. */
+function findColon(line: string, from: number): number {
+  let depth = 0
+  for (let i = from; i < line.length; i++) {
+    const c = line[i]!
+    if (c === '(' || c === '[' || c === '{') depth++
+    else if (c === ')' || c === ']' || c === '}') depth--
+    else if (c === ';' && depth === 0) return -1
+    else if (c === ':' && depth === 0) return i
+  }
+  return -1
+}
+
+function extend(part: Part, more: Part): void {
+  // A continuation line joins its part with a space; the place keeps the first line.
+  part.text = part.text === '' ? more.text : `${part.text} ${more.text}`
+  if (more.line === part.line) part.end = more.end
+}
+
+/** `{text: …, verify: yes}` → its fields; plain text stays text. */
+function itemFields(text: string): { text: string; fields: Record<string, string> } {
+  const braced = /^\{(.*)\}$/s.exec(text)
+  if (!braced) return { text, fields: {} }
+  const fields: Record<string, string> = {}
+  // Known short fields at the end (`, verify: yes`), the rest is the text: a text may hold commas.
+  let inner = braced[1]!.trim()
+  for (;;) {
+    const tail = /,\s*([a-z_]+)\s*:\s*([^,:]*)$/i.exec(inner)
+    if (!tail || tail[1] === 'text') break
+    fields[tail[1]!.toLowerCase()] = tail[2]!.trim()
+    inner = inner.slice(0, tail.index).trim()
+  }
+  const head = /^text\s*:\s*(.*)$/is.exec(inner)
+  const body = (head ? head[1]! : inner).trim().replace(/^"(.*)"$/s, '$1')
+  fields.text = body
+  return { text: body, fields }
 }

@@ -28,8 +28,8 @@ describe('bad input', () => {
     expect(line).toBe(3)
   })
 
-  it('should place malformed YAML inside a block at its line in the note', async () => {
-    const [line, , rule] = await onlyError(crank(`crank: 40 mm\n${base}\nbad: [unclosed`))
+  it('should place a body line that is not `name: value` at its line in the note', async () => {
+    const [line, , rule] = await onlyError(crank(`crank: 40 mm\n${base}\nthis line has no colon`))
     expect(rule).toBe('block-syntax')
     expect(line).toBe(BODY_LINE + 4)
   })

@@ -41,15 +41,8 @@ export interface BuiltNote {
 /** Evaluate and render a note. Never throws on a bad note: problems are messages on `file`. */
 export async function buildNote(file: VFile, options: BuildNoteOptions): Promise<BuiltNote> {
   // 1. Read and evaluate (the notes layer).
-  const { tree, model } = readNote(file, options.tool)
-  const date = model.meta.date === 'git' ? (options.gitDate?.() ?? null) : model.meta.date
-  if (model.meta.date === 'git' && date === null) {
-    file.message('Cannot find the note’s last commit date for `date: git`: the note is not committed, or git is not available', {
-      place: { line: 1, column: 1 },
-      ruleId: 'front-matter-field',
-      source: 'linkwright',
-    }).fatal = true
-  }
+  const { tree, model } = readNote(file, options.tool, { gitDate: options.gitDate ?? null })
+  const date = model.date
   const results = resultsDocument(model, file, options.notePath, date)
   if (hasErrors(file)) return { model, html: null, results, files: new Map(), ok: false, date, charts: { rendered: 0, cached: 0 } }
   // 2. Charts: specs from the core's sweeps, SVG from vega (depends on 1).

@@ -11,15 +11,16 @@
  * into place: a note with errors, or a build that stops half-way, leaves the
  * previous package whole. The other notes still build.
  */
-import { execFileSync } from 'node:child_process'
 import { readFileSync, readdirSync } from 'node:fs'
-import { basename, dirname, extname, join, relative } from 'node:path'
+import { basename, extname, join, relative } from 'node:path'
 import { VFile } from 'vfile'
 import type { NoteModel } from '../notes/note.js'
 import type { ChartCache } from '../render/chart-svg.js'
 import { statusWords } from '../render/sections.js'
+import { tallyChecks, tallyWords } from '../notes/tally.js'
 import { COMMIT, TOOL } from '../version.js'
 import { findNotes, packageFolder, stageFolder, writeFileAtomic, type StagedFolder } from './files.js'
+import { gitDate } from './git.js'
 import { katexDist, templatePath } from './paths.js'
 import { report } from './reporter.js'
 
@@ -65,20 +66,6 @@ function diskCache(folder: string): ChartCache {
         // A cache that cannot be written only costs time.
       }
     },
-  }
-}
-
-/** Date of the note's last commit (YYYY-MM-DD), or null. */
-function gitDate(path: string): string | null {
-  try {
-    const date = execFileSync('git', ['log', '-1', '--format=%cs', '--', basename(path)], {
-      cwd: dirname(path),
-      encoding: 'utf8',
-      stdio: ['ignore', 'pipe', 'ignore'],
-    }).trim()
-    return /^\d{4}-\d{2}-\d{2}$/.test(date) ? date : null
-  } catch {
-    return null
   }
 }
 
@@ -172,8 +159,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     for (const item of staged) {
       item.staged.commit()
       if (options.quiet) continue
-      const fails = item.model.checks.filter((c) => !c.passed).length
-      const checks = item.model.checks.length > 0 ? ` (${item.model.checks.length - fails} of ${item.model.checks.length} checks pass)` : ''
+      const checks = item.model.checks.length > 0 ? ` (${tallyWords(tallyChecks(item.model.checks))})` : ''
       const pdf = printed.has(item) ? `, ${join(item.folder, `${item.stem}.pdf`)} (${printed.get(item)} pages)` : ''
       out(`${item.file.path}: ${join(item.folder, 'index.html')}${pdf}${checks}\n`)
     }

@@ -11,10 +11,14 @@ import { blockKinds } from './block-kinds/index.js'
 import { readBody } from './body.js'
 import { messages } from './messages.js'
 import { math } from './quantity.js'
-import { reportError } from './report.js'
+import { reportError, reportWarning } from './report.js'
+import { DESIGN_INPUTS, DESIGN_INPUTS_OLD_NAME } from './block-kinds/design-inputs.js'
 import type { CalcBlock } from './types.js'
 
 const ID = /^[A-Za-z][A-Za-z0-9_]*$/
+
+/** Block kinds renamed, still read (with a warning) for one release: old name → new. */
+const RENAMED_KINDS: ReadonlyMap<string, string> = new Map([[DESIGN_INPUTS_OLD_NAME, DESIGN_INPUTS]])
 const RESERVED = new Set(['true', 'false', 'null', 'undefined', 'end', 'in', 'to', 'and', 'or', 'not', 'xor', 'mod'])
 
 /** A calculation block with the code node it came from. */
@@ -28,9 +32,14 @@ export function findBlocks(tree: Root, file: VFile): FoundBlock[] {
   const found: FoundBlock[] = []
   const seen = new Map<string, number>()
   visit(tree, 'code', (node: Code) => {
-    const kind = node.lang ?? ''
     const meta = (node.meta ?? '').trim()
     const idMatch = /^#(\S+)\s*(.*)$/.exec(meta)
+    let kind = node.lang ?? ''
+    const renamed = RENAMED_KINDS.get(kind)
+    if (renamed && idMatch) {
+      reportWarning(file, 'deprecated-block-kind', messages['deprecated-block-kind'](kind, renamed), node.position)
+      kind = renamed
+    }
     if (!blockKinds.has(kind)) {
       if (idMatch) reportError(file, 'unknown-block-kind', messages['unknown-block-kind'](kind, [...blockKinds.keys()]), node.position)
       return

@@ -46,8 +46,9 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
   for (const key of keys) if (!order.includes(key)) failed.add(key)
   for (const key of order) {
     const block = byKey.get(key)!
+    const kind = blockKinds.get(block.kind)!
     const broken = [...needs.get(key)!].find((dep) => failed.has(dep))
-    if (broken) {
+    if (broken && !kind.toleratesFailedDependencies) {
       reportError(file, 'depends-on-error', messages['depends-on-error'](broken), block.place)
       failed.add(key)
       continue
@@ -57,11 +58,11 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
       failed.add(key)
       continue
     }
-    const errorsBefore = file.messages.filter((m) => m.fatal === true).length
-    const result = blockKinds.get(block.kind)!.evaluate(block, context)
-    const errorsAfter = file.messages.filter((m) => m.fatal === true).length
+    // A block that gives an outcome despite a bad line (a design input, a check) is not failed:
+    // its bad lines are marked, and blocks that use them say so without a second error.
+    const result = kind.evaluate(block, context)
     outcomes[block.index] = result
-    if (result === null || errorsAfter > errorsBefore) failed.add(key)
+    if (result === null) failed.add(key)
     if (result && block.id) context.outcomes.set(block.id, result)
   }
   return { outcomes, context }

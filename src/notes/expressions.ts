@@ -4,18 +4,30 @@
  * with problems turned into the engineer's words.
  */
 import type { MathNode } from 'mathjs'
+import type { Position } from 'unist'
 import { evaluateExpression, parseQuantityExpression } from './quantity.js'
 import { messages, type RuleId } from './messages.js'
 
 /** Values of the evaluated blocks by id, and why some values are missing. */
 export interface Scope {
   readonly values: Map<string, Record<string, unknown>>
+  /** Values a block has no number for, with the reason (e.g. the time ratio of a crank that rocks). */
   readonly unavailable: Map<string, Map<string, string>>
+  /** Values whose own lines have errors (already reported there). */
+  readonly broken: Map<string, Map<string, string>>
+  /** Where each published input was written, by `id.name`. */
+  readonly places: Map<string, Position>
 }
 
 /** A new, empty scope. */
 export function createScope(): Scope {
-  return { values: new Map(), unavailable: new Map() }
+  return { values: new Map(), unavailable: new Map(), broken: new Map(), places: new Map() }
+}
+
+/** The `id.name` an expression is, when it is nothing but a reference to another block's value. */
+export function plainReference(text: string): string | null {
+  const match = /^\s*([A-Za-z][A-Za-z0-9_]*)\.([A-Za-z][A-Za-z0-9_]*)\s*$/.exec(text)
+  return match ? `${match[1]}.${match[2]}` : null
 }
 
 /** Parse without reporting: null when the text is not an expression. */
@@ -71,6 +83,11 @@ export function evaluateText(
     const values = scope.values.get(id)
     if (!values) return
     if (!(name in values)) {
+      const broken = scope.broken.get(id)?.get(name)
+      if (broken) {
+        problem = { ok: false, ruleId: 'depends-on-error', reason: messages['invalid-expression'](text, `\`${id}.${name}\` has no value: ${broken}`) }
+        return
+      }
       const why = scope.unavailable.get(id)?.get(name)
       problem = {
         ok: false,

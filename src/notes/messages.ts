@@ -19,6 +19,8 @@ export const messages = {
   'block-syntax': (detail: string) => `Cannot read this block: ${detail}`,
   'unknown-block-kind': (kind: string, known: readonly string[]) =>
     `Unexpected block kind \`${kind}\`, expected one of ${list(known)}`,
+  'deprecated-block-kind': (old: string, current: string) =>
+    `The block kind \`${old}\` is now called \`${current}\`: rename the fence; the old name is read for one more release`,
   'missing-block-id': (kind: string) => `Missing block id: other blocks refer to a ${kind} block by its id, e.g. \`${kind} #drive\``,
   'invalid-block-id': (id: string, why: string) => `Unexpected block id \`${id}\`: ${why}`,
   'duplicate-block-id': (id: string, line: number) => `Unexpected block id \`${id}\`: already used by the block at line ${line}`,

@@ -27,7 +27,7 @@ import { readFrontMatter } from './front-matter.js'
 import { messages } from './messages.js'
 import { resolveProse } from './prose.js'
 import { builtinReferences } from './references.js'
-import { reportWarning } from './report.js'
+import { reportError, reportWarning } from './report.js'
 import type { CalcBlock, NoteMeta } from './types.js'
 
 /** Where a calculation block stood in the note, for the render layer. */
@@ -61,9 +61,17 @@ export interface NumberedReference {
   readonly builtin: boolean
 }
 
+/** Options for {@link readNote}. */
+export interface ReadOptions {
+  /** Date of the note's last commit (YYYY-MM-DD), asked for only when the front matter says `date: git`. */
+  readonly gitDate?: (() => string | null) | null
+}
+
 /** Everything the package shows, in document order. */
 export interface NoteModel {
   readonly meta: NoteMeta
+  /** The package's date: the front matter's, or the note's last commit date for `date: git`; null when none. */
+  readonly date: string | null
   readonly blocks: readonly CalcBlock[]
   readonly outcomes: readonly (BlockOutcome | null)[]
   readonly checks: readonly CheckOutcome[]
@@ -77,7 +85,7 @@ export interface NoteModel {
 const parser = unified().use(remarkParse).use(remarkFrontmatter, ['yaml']).use(remarkGfm).use(remarkMath).use(remarkDirective).freeze()
 
 /** Parse and evaluate a note. Problems are messages on `file`; this never throws on bad input. */
-export function readNote(file: VFile, tool: Tool): { tree: Root; model: NoteModel } {
+export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null): { tree: Root; model: NoteModel } {
   const tree = parser.parse(file) as Root
   // 1. Front matter (depends on nothing; everything else depends on its settings).
   const first = tree.children[0]
@@ -85,6 +93,11 @@ export function readNote(file: VFile, tool: Tool): { tree: Root; model: NoteMode
     first?.type === 'yaml'
       ? readFrontMatter(first.value, (first.position?.start.line ?? 1) + 1, file)
       : readFrontMatter(null, 1, file)
+  // The check command and the build resolve `date: git` the same way, so they agree on it.
+  const date = meta.date === 'git' ? (options?.gitDate?.() ?? null) : meta.date
+  if (meta.date === 'git' && date === null) {
+    reportError(file, 'front-matter-field', messages['front-matter-field']('date', 'cannot find the note’s last commit date for `date: git`: the note is not committed, or git is not available'), first?.position ?? { line: 1, column: 1 })
+  }
   // 2. Blocks, evaluated in dependency order.
   const found = findBlocks(tree, file)
   const blocks = found.map((f) => f.block)
@@ -101,6 +114,7 @@ export function readNote(file: VFile, tool: Tool): { tree: Root; model: NoteMode
   }
   const model: NoteModel = {
     meta,
+    date,
     blocks,
     outcomes,
     checks: outcomes.flatMap((o) => o?.checks ?? []),

@@ -15,10 +15,9 @@ import { SKIP, visit } from 'unist-util-visit'
 import { displayValue } from './display.js'
 import { evaluateText } from './expressions.js'
 import { messages } from './messages.js'
-import { isUnit, kindOfUnit, unitFitsKind } from './quantity.js'
+import { unitFitsKind, valueOf } from './quantity.js'
 import { reportError } from './report.js'
 import type { EvaluationContext } from './block-kinds/index.js'
-import type { Value } from './types.js'
 
 /** A printed value in prose. */
 export interface ValueNode {
@@ -100,19 +99,8 @@ export function resolveProse(tree: Root, context: EvaluationContext): void {
     const digitsText = attributes.digits
     const digits = digitsText ? Number(digitsText) : Math.min(meta.digits, 4)
     if (!Number.isInteger(digits) || digits < 1 || digits > 12) return fail('`digits` must be a whole number from 1 to 12')
-    let value: Value
-    const v = evaluated.value
-    if (typeof v === 'number') value = { type: 'quantity', kind: 'ratio', si: v }
-    else if (typeof v === 'boolean') value = { type: 'flag', flag: v }
-    else if (typeof v === 'string') value = { type: 'text', text: v }
-    else if (isUnit(v)) {
-      const kind = kindOfUnit(v)
-      if (kind) value = { type: 'quantity', kind, si: v.value ?? Number.NaN }
-      else {
-        const unit = v.formatUnits()
-        value = { type: 'other', si: v.value ?? Number.NaN, unit, shown: v.toNumber(unit) }
-      }
-    } else return fail('it is not a value')
+    const value = valueOf(evaluated.value)
+    if (value === null) return fail('it is not a value')
     const unit = attributes.unit ?? null
     if (unit !== null) {
       if (value.type !== 'quantity' || !unitFitsKind(unit, value.kind)) return fail(`\`${unit}\` is not a unit for this value`)

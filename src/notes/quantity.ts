@@ -5,11 +5,15 @@
  */
 
 import { all, create, type MathJsInstance, type MathNode, type Unit } from 'mathjs'
+import type { Value } from './types.js'
 
 /** A mathjs instance of our own, so `rpm` and the restrictions do not leak. */
 export const math: MathJsInstance = create(all!, { number: 'number', precision: 64 })
 math.createUnit('rpm', { definition: '1 cycle/min', aliases: ['rev_per_min'] })
 math.createUnit('rev', { definition: '1 cycle', aliases: ['revs', 'revolution', 'revolutions'] })
+// A press or pump stroke per crank turn: "strokes per minute" is the crank speed.
+math.createUnit('stroke', { definition: '1 cycle', aliases: ['strokes'] })
+math.createUnit('spm', { definition: '1 cycle/min' })
 
 const parseExpression = math.parse
 const isUnitValue = math.isUnit
@@ -86,11 +90,20 @@ export function parseQuantityExpression(text: string): MathNode {
   return node
 }
 
+/**
+ * The engineer's spellings mathjs does not read: `120 1/min` (a number, then a
+ * reciprocal unit) and `/min` (mathjs takes `min` for the function; the unit is
+ * `minute`). Only `min` not followed by `(` is a unit.
+ */
+export function normaliseUnits(text: string): string {
+  return text.replace(/(\d)\s+1\s*\/\s*(?=[A-Za-z])/g, '$1 / ').replace(/(^|[^A-Za-z0-9_.])min\b(?!\s*\()/g, '$1minute')
+}
+
 function parseChecked(text: string): MathNode {
   if (text.length > MAX_EXPRESSION_LENGTH) {
     throw new Error(`the expression is longer than ${MAX_EXPRESSION_LENGTH} characters`)
   }
-  const node = parseExpression(text)
+  const node = parseExpression(normaliseUnits(text))
   node.traverse((child) => {
     if (!ALLOWED_NODES.has(child.type)) {
       const what = REFUSED_NODE_WORDS[child.type] ?? child.type
@@ -131,6 +144,19 @@ export type QuantityKind =
   | 'velocity'
   | 'acceleration'
   | 'time'
+  | 'frequency'
+  | 'force'
+  | 'torque'
+  | 'energy'
+  | 'power'
+  | 'mass'
+  | 'inertia'
+  | 'pressure'
+  | 'density'
+  | 'area'
+  | 'second-moment'
+  | 'mass-radius'
+  | 'pressure-velocity'
   | 'ratio'
   | 'count'
 
@@ -150,12 +176,25 @@ interface KindInfo {
 export const KINDS: Readonly<Record<QuantityKind, KindInfo>> = {
   length: { si: 'm', SI: 'mm', US: 'in', words: 'a length', examples: '45 mm, 1.75 in' },
   angle: { si: 'rad', SI: 'deg', US: 'deg', words: 'an angle', examples: '12 deg, 0.2 rad' },
-  'rotational-speed': { si: 'rad/s', SI: 'rpm', US: 'rpm', words: 'a rotational speed', examples: '96 rpm, 10 rad/s, 1.6 cycle/s' },
+  'rotational-speed': { si: 'rad/s', SI: 'rpm', US: 'rpm', words: 'a rotational speed', examples: '96 rpm, 120 1/min, 10 rad/s, 1.6 Hz' },
   'angular-velocity': { si: 'rad/s', SI: 'rad/s', US: 'rad/s', words: 'an angular velocity', examples: '10 rad/s, 96 rpm' },
   'angular-acceleration': { si: 'rad/s^2', SI: 'rad/s^2', US: 'rad/s^2', words: 'an angular acceleration', examples: '5 rad/s^2' },
   velocity: { si: 'm/s', SI: 'm/s', US: 'ft/s', words: 'a velocity', examples: '1.2 m/s, 4 ft/s' },
   acceleration: { si: 'm/s^2', SI: 'm/s^2', US: 'ft/s^2', words: 'an acceleration', examples: '9.81 m/s^2' },
   time: { si: 's', SI: 's', US: 's', words: 'a time', examples: '0.6 s, 250 ms' },
+  frequency: { si: 'Hz', SI: 'Hz', US: 'Hz', words: 'a frequency', examples: '2 Hz' },
+  force: { si: 'N', SI: 'N', US: 'lbf', words: 'a force', examples: '4.2 kN, 900 lbf' },
+  torque: { si: 'N*m', SI: 'N*m', US: 'lbf*ft', words: 'a torque', examples: '150 N*m, 110 lbf*ft' },
+  energy: { si: 'J', SI: 'J', US: 'ft*lbf', words: 'an energy', examples: '250 J, 1.2 kJ' },
+  power: { si: 'W', SI: 'kW', US: 'hp', words: 'a power', examples: '2.2 kW, 3 hp' },
+  mass: { si: 'kg', SI: 'kg', US: 'lb', words: 'a mass', examples: '1.2 kg, 3 lb' },
+  inertia: { si: 'kg*m^2', SI: 'kg*m^2', US: 'lb*ft^2', words: 'a moment of inertia', examples: '0.02 kg*m^2' },
+  pressure: { si: 'Pa', SI: 'MPa', US: 'psi', words: 'a pressure or stress', examples: '6 bar, 210 MPa, 3000 psi' },
+  density: { si: 'kg/m^3', SI: 'kg/m^3', US: 'lb/in^3', words: 'a density', examples: '7850 kg/m^3' },
+  area: { si: 'm^2', SI: 'mm^2', US: 'in^2', words: 'an area', examples: '1960 mm^2, 3 in^2' },
+  'second-moment': { si: 'm^4', SI: 'mm^4', US: 'in^4', words: 'a second moment of area', examples: '12000 mm^4' },
+  'mass-radius': { si: 'kg*m', SI: 'kg*mm', US: 'lb*in', words: 'a mass times a radius', examples: '0.9 kg*mm' },
+  'pressure-velocity': { si: 'Pa*m/s', SI: 'MPa*m/s', US: 'psi*ft/minute', words: 'a pressure times a speed (pV)', examples: '1.5 MPa*m/s' },
   ratio: { si: '', SI: '', US: '', words: 'a plain number', examples: '1.15' },
   count: { si: '', SI: '', US: '', words: 'a whole number', examples: '361' },
 }
@@ -172,19 +211,59 @@ function referenceUnit(kind: QuantityKind): Unit | null {
   return unit
 }
 
+/** Kinds tried in order when a written value's kind is not known from its use (torque before energy). */
+const RECOGNISED: readonly QuantityKind[] = [
+  'length',
+  'angle',
+  'angular-velocity',
+  'angular-acceleration',
+  'velocity',
+  'acceleration',
+  'time',
+  'frequency',
+  'force',
+  'torque',
+  'power',
+  'mass',
+  'inertia',
+  'pressure',
+  'density',
+  'area',
+  'second-moment',
+  'mass-radius',
+  'pressure-velocity',
+]
+
 /** Which kind a unit value has, among those with an SI unit, or null. */
 export function kindOfUnit(value: Unit): QuantityKind | null {
+  const written = value.formatUnits()
   // A speed written in turns per time is a rotational speed (shown in rpm), not an angular velocity.
-  if (value.equalBase(referenceUnit('rotational-speed')!) && /rpm|cycle|rev/.test(value.formatUnits())) return 'rotational-speed'
-  for (const kind of ['length', 'angle', 'angular-velocity', 'angular-acceleration', 'velocity', 'acceleration', 'time'] as const) {
+  if (value.equalBase(referenceUnit('rotational-speed')!) && /rpm|cycle|rev|stroke|spm/.test(written)) return 'rotational-speed'
+  // Torque and energy share a dimension: joules (and their kin) say energy, N·m says torque.
+  if (value.equalBase(referenceUnit('energy')!) && /(^|[^a-z])(k|M|m)?(J|Wh|cal|BTU|erg)\b/.test(written)) return 'energy'
+  for (const kind of RECOGNISED) {
     if (value.equalBase(referenceUnit(kind)!)) return kind
   }
   return null
 }
 
+/** A written value as a Value: a quantity of a known kind, or another dimension with its SI value and SI unit. */
+export function valueOf(value: unknown): Value | null {
+  if (typeof value === 'number') return Number.isFinite(value) ? { type: 'quantity', kind: 'ratio', si: value } : null
+  if (typeof value === 'boolean') return { type: 'flag', flag: value }
+  if (typeof value === 'string') return { type: 'text', text: value }
+  if (!isUnit(value)) return null
+  const kind = kindOfUnit(value)
+  if (kind) return { type: 'quantity', kind, si: value.toNumber(KINDS[kind].si) }
+  if (value.equalBase(math.unit('1'))) return { type: 'quantity', kind: 'ratio', si: value.toNumber('') }
+  const unit = value.formatUnits()
+  const si = value.toSI()
+  return { type: 'other', si: si.toNumber(si.formatUnits()), siUnit: si.formatUnits(), unit, shown: value.toNumber(unit) }
+}
+
 /** Result of reading a value as a quantity of a kind. */
 export type QuantityReading =
-  | { readonly ok: true; readonly si: number }
+  | { readonly ok: true; readonly si: number; readonly note?: string }
   | { readonly ok: false; readonly reason: string; readonly actualKind: string }
 
 /** Read an evaluated value as a quantity of `kind`, giving SI as a plain number. */
@@ -210,6 +289,11 @@ export function readQuantity(value: unknown, kind: QuantityKind): QuantityReadin
   if (!isUnit(value)) {
     return { ok: false, reason: `expected ${info.words} (${info.examples})`, actualKind: describeValue(value) }
   }
+  // A crank speed written as a frequency (2 Hz, 120 1/min) counts turns per unit time.
+  if (kind === 'rotational-speed' && value.equalBase(referenceUnit('frequency')!)) {
+    const si = value.toNumber('Hz') * 2 * Math.PI
+    if (Number.isFinite(si)) return { ok: true, si, note: 'read as turns per unit time' }
+  }
   if (!value.equalBase(referenceUnit(kind)!)) {
     return {
       ok: false,
@@ -228,11 +312,6 @@ export function describeValue(value: unknown): string {
     const kind = kindOfUnit(value)
     const text = value.format({ precision: 6 })
     if (kind) return `${KINDS[kind].words} (${text})`
-    if (value.equalBase(math.unit('1 N'))) return `a force (${text})`
-    if (value.equalBase(math.unit('1 Hz'))) return `a frequency (${text}; write a rotational speed as rpm, rad/s or cycle/s)`
-    if (value.equalBase(math.unit('1 Pa'))) return `a pressure or stress (${text})`
-    if (value.equalBase(math.unit('1 kg'))) return `a mass (${text})`
-    if (value.equalBase(math.unit('1 J'))) return `an energy or torque (${text})`
     return `a quantity in ${value.formatUnits() || 'no unit'} (${text})`
   }
   if (typeof value === 'number') return `the number ${value}`

@@ -10,10 +10,14 @@ import { SOURCE, ruleUrl, type RuleId } from './messages.js'
 /** A place in the note: a span or a point. */
 export type Place = Position | Point | undefined
 
-/** Record an error: the note fails, the other blocks and notes go on. */
+/**
+ * Record an error: the note fails, the other blocks and notes go on. A
+ * `depends-on-error` is the follow-on of a mistake reported at its own place:
+ * it is recorded as information, so that the error count is the count of mistakes.
+ */
 export function reportError(file: VFile, ruleId: RuleId, reason: string, place: Place, cause?: unknown): VFileMessage {
   const message = file.message(reason, { place, ruleId, source: SOURCE, cause: cause instanceof Error ? cause : undefined })
-  message.fatal = true
+  message.fatal = ruleId === 'depends-on-error' ? undefined : true
   message.url = ruleUrl(ruleId)
   return message
 }

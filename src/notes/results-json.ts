@@ -8,6 +8,8 @@ import { displayValue } from './display.js'
 import { KINDS } from './quantity.js'
 import type { NoteModel } from './note.js'
 import type { NamedValue } from './types.js'
+import { CAUTION } from './caution.js'
+import { tallyChecks } from './tally.js'
 
 /** Identifier and version of this layout. */
 export const RESULTS_SCHEMA = 'linkwright-results/1'
@@ -36,7 +38,7 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
       case 'quantity':
         return { ...base, kind: v.value.kind, si: finite(v.value.si), siUnit: KINDS[v.value.kind].si, ...extra }
       case 'other':
-        return { ...base, kind: 'other', si: finite(v.value.si), siUnit: v.value.unit, ...extra }
+        return { ...base, kind: 'other', si: finite(v.value.si), siUnit: v.value.siUnit, ...extra }
       case 'text':
         return { ...base, kind: 'text', value: v.value.text, ...extra }
       case 'flag':
@@ -45,6 +47,7 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
         return { ...base, kind: 'none', value: null, reason: v.value.reason, ...extra }
     }
   }
+  const tally = tallyChecks(model.checks)
   return {
     schema: RESULTS_SCHEMA,
     tool: { name: model.tool.name, version: model.tool.version },
@@ -76,20 +79,27 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
       block: c.blockId,
       label: c.label,
       condition: c.condition,
-      status: c.passed ? 'PASS' : 'FAIL',
+      status: c.status === 'pass' ? 'PASS' : c.status === 'fail' ? 'FAIL' : 'NOT EVALUATED',
+      informative: c.informative,
       operator: c.operator,
       actual: { si: finite(c.actualSI), display: c.actual },
       limit: { si: finite(c.limitSI), display: c.limit },
       margin: c.margin,
+      ...(c.reason ? { reason: c.reason } : {}),
       source: c.source,
       line: c.line,
     })),
     summary: {
-      checks: model.checks.length,
-      failed: model.checks.filter((c) => !c.passed).length,
+      checks: tally.gate.total,
+      passed: tally.gate.pass,
+      failed: tally.gate.fail,
+      notEvaluated: tally.gate.notEvaluated,
+      informative: { checks: tally.informative.total, passed: tally.informative.pass, failed: tally.informative.fail, notEvaluated: tally.informative.notEvaluated },
+      gatePasses: tally.gatePasses,
       errors: file.messages.filter((m) => m.fatal === true).length,
       warnings: file.messages.filter((m) => m.fatal === false).length,
     },
+    caution: CAUTION,
     messages: file.messages.map((m) => ({
       line: m.line ?? null,
       column: m.column ?? null,
@@ -101,6 +111,6 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
 }
 
 /** JSON has no NaN or Infinity: write null. */
-function finite(value: number): number | null {
-  return Number.isFinite(value) ? value : null
+function finite(value: number | null): number | null {
+  return value !== null && Number.isFinite(value) ? value : null
 }

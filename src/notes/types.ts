@@ -55,7 +55,7 @@ export interface NoteMeta {
 /** A value a block has: a quantity in SI, a word, a yes/no, or nothing (with the reason). */
 export type Value =
   | { readonly type: 'quantity'; readonly kind: QuantityKind; readonly si: number }
-  | { readonly type: 'other'; readonly si: number; readonly unit: string; readonly shown: number }
+  | { readonly type: 'other'; readonly si: number; readonly siUnit: string; readonly unit: string; readonly shown: number }
   | { readonly type: 'text'; readonly text: string }
   | { readonly type: 'flag'; readonly flag: boolean }
   | { readonly type: 'none'; readonly reason: string }
@@ -80,6 +80,8 @@ export interface InputValue extends NamedValue {
   readonly place: Position | null
   /** False when the default was taken. */
   readonly given: boolean
+  /** How the written value was read, when that is not obvious (e.g. a frequency read as turns per second). */
+  readonly note?: string
 }
 
 /** One step of a block's method: the governing equation, the same with numbers, the result. */

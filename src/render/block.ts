@@ -10,7 +10,7 @@ import type { NoteModel } from '../notes/note.js'
 import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
 import { animationSvg, drawingSvg } from './drawing-svg.js'
 import { texNode } from './equation.js'
-import { table, verdict, withCitations, type ReferenceNumbers } from './markup.js'
+import { checkRowClass, table, verdict, withCitations, type ReferenceNumbers } from './markup.js'
 
 /** Shared lookups while rendering one package. */
 export interface RenderContext {
@@ -165,14 +165,14 @@ function checksTable(outcome: BlockOutcome, context: RenderContext): Element {
     'Acceptance checks',
     ['Result', 'Check', 'Value', 'Limit', 'Margin', 'Source'],
     outcome.checks.map((c) => [
-      verdict(c.passed),
-      [h('span', c.label), h('br'), h('code.lw-condition', c.condition)],
+      verdict(c),
+      [h('span', c.label), h('br'), h('code.lw-condition', c.condition), ...(c.reason ? [h('br'), h('span.lw-error', c.reason)] : [])],
       h('span.lw-number', c.actual),
-      c.limit,
-      c.margin,
+      h('span.lw-limit', c.limit),
+      h('span.lw-number', c.margin),
       c.source ? withCitations(c.source, context.references) : [h('span.lw-missing-source', 'no source given')],
     ]),
-    (i) => (outcome.checks[i]!.passed ? 'lw-row-pass' : 'lw-row-fail'),
+    (i) => checkRowClass(outcome.checks[i]!),
   )
 }
 

@@ -4,6 +4,7 @@
  */
 import type { Element, ElementContent } from 'hast'
 import { h } from 'hastscript'
+import type { CheckOutcome } from '../notes/block-kinds/kind.js'
 import type { NumberedReference } from '../notes/note.js'
 
 /** Lookup of reference numbers by key. */
@@ -50,7 +51,14 @@ export function table(
   ])
 }
 
-/** PASS or FAIL in words and style. */
-export function verdict(passed: boolean): Element {
-  return passed ? h('strong.lw-pass', '✔ PASS') : h('strong.lw-fail', '✖ FAIL')
+/** PASS, FAIL or NOT EVALUATED in words and style; an informative check says so. */
+export function verdict(check: Pick<CheckOutcome, 'status' | 'informative'>): Element {
+  const mark =
+    check.status === 'pass' ? h('strong.lw-pass', '✔ PASS') : check.status === 'fail' ? h('strong.lw-fail', '✖ FAIL') : h('strong.lw-not-evaluated', '? NOT EVALUATED')
+  return check.informative ? h('span', [mark, h('br'), h('span.lw-informative', 'informative')]) : mark
+}
+
+/** Row class of a check: its status. */
+export function checkRowClass(check: Pick<CheckOutcome, 'status' | 'informative'>): string {
+  return check.informative ? 'lw-row-informative' : check.status === 'pass' ? 'lw-row-pass' : check.status === 'fail' ? 'lw-row-fail' : 'lw-row-not-evaluated'
 }

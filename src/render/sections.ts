@@ -4,11 +4,13 @@
  */
 import type { Element } from 'hast'
 import { h } from 'hastscript'
+import { CAUTION } from '../notes/caution.js'
 import { displayValue } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { Person } from '../notes/types.js'
 import { blockAnchor, type RenderContext } from './block.js'
-import { table, verdict, withCitations } from './markup.js'
+import { failuresFirst, tallyChecks, tallyWords } from '../notes/tally.js'
+import { checkRowClass, table, verdict, withCitations } from './markup.js'
 
 /** Status in words for the cover and every page. */
 export function statusWords(status: NoteModel['meta']['status']): string {
@@ -73,26 +75,25 @@ export function summary(model: NoteModel, context: RenderContext): Element {
       rows.push([h('a', { href: `#${blockAnchor(block)}` }, `#${block.id}`), result.label, h('span.lw-number', shown.number), shown.label])
     }
   }
-  const checks = [...model.checks].sort((p, q) => Number(p.passed) - Number(q.passed))
-  const failed = checks.filter((c) => !c.passed).length
+  const checks = failuresFirst(model.checks)
+  const tally = tallyChecks(model.checks)
   const errored = model.outcomes.some((o, i) => o === null && model.blocks[i]!.kind !== 'assumptions')
+  const words = tallyWords(tally)
   return h('section.lw-section', { id: 'summary' }, [
     h('h2', 'Summary'),
     h('p.lw-check-count', [
-      checks.length === 0
+      tally.gate.total === 0 && tally.informative.total === 0
         ? 'No acceptance checks are stated in this note.'
-        : failed === 0
-          ? `All ${checks.length} acceptance checks PASS.`
-          : `${failed} of ${checks.length} acceptance checks FAIL.`,
+        : `${words.charAt(0).toUpperCase()}${words.slice(1)}.`,
       errored ? ' Some blocks have errors and are not evaluated.' : '',
     ]),
     checks.length > 0
       ? table(
           'lw-summary-checks',
-          'Acceptance checks (failures first)',
+          'Acceptance checks (failures first, informative checks last)',
           ['Result', 'Check', 'Value', 'Limit', 'Source'],
-          checks.map((c) => [verdict(c.passed), c.label, h('span.lw-number', c.actual), c.limit, c.source ? withCitations(c.source, context.references) : '—']),
-          (i) => (checks[i]!.passed ? 'lw-row-pass' : 'lw-row-fail'),
+          checks.map((c) => [verdict(c), c.label, h('span.lw-number', c.actual), h('span.lw-limit', c.limit), c.source ? withCitations(c.source, context.references) : '—']),
+          (i) => checkRowClass(checks[i]!),
         )
       : null,
     rows.length > 0 ? table('lw-key-results', 'Key results', ['Block', 'Result', 'Value', 'Unit'], rows) : null,
@@ -156,14 +157,7 @@ export function software(model: NoteModel, notePath: string, commit: string): El
 
 /** The safety caution every package carries. */
 export function caution(): Element {
-  return h('section.lw-section.lw-caution', { id: 'caution', role: 'note' }, [
-    h('h2', 'Caution'),
-    h('p', [
-      'This package documents design calculations for a machine that can hurt people. Its results are for checking by a qualified engineer and rest on the inputs and assumptions stated above; they do not replace that engineer’s judgement. ',
-      'Guarding, fatigue, and the local codes and licensed engineering practice that apply govern the design. ',
-      h('strong', 'This package does not claim compliance with any code or standard.'),
-    ]),
-  ])
+  return h('section.lw-section.lw-caution', { id: 'caution', role: 'note' }, [h('h2', 'Caution'), h('p', CAUTION)])
 }
 
 /** Sign-off: roles with name, date and signature lines, the checker's checklist and the fingerprint. */

@@ -49,8 +49,16 @@ describe('linkwright build', () => {
     expect(pusher.results.stroke.displayUnit).toBe('mm')
     expect(pusher.results.time_ratio.si).toBeCloseTo(core.timeRatio!, 14)
     expect(pusher.inputs.crank).toMatchObject({ si: 0.0378, expression: '37.8 mm', source: '[dwg-4410] item 3, crank disc pin radius', given: true })
-    expect(results.checks.map((c: { status: string }) => c.status)).toEqual(['PASS', 'PASS', 'PASS', 'PASS', 'PASS', 'FAIL'])
-    expect(results.summary).toMatchObject({ checks: 6, failed: 1, errors: 0 })
+    expect(results.checks.map((c: { status: string; informative: boolean }) => [c.status, c.informative])).toEqual([
+      ['PASS', false],
+      ['PASS', false],
+      ['PASS', false],
+      ['PASS', false],
+      ['PASS', false],
+      ['FAIL', true],
+    ])
+    expect(results.summary).toMatchObject({ checks: 5, passed: 5, failed: 0, informative: { checks: 1, failed: 1 }, gatePasses: true, errors: 0 })
+    expect(results.caution).toMatch(/^These calculations describe machinery that can hurt people\..*does not claim compliance with any code or standard\.$/)
   })
 
   it('should give byte-identical output when run again', () => {
@@ -103,17 +111,30 @@ describe('dates', () => {
     writeFileSync(join(dir, 'note.md'), '---\ntitle: Dated\nnumber: D-1\nrevision: A\nstatus: draft\ndate: git\n---\n\nText.\n')
     const result = run(['build', 'note.md', '--no-pdf'], dir)
     expect(result.code).toBe(1)
-    expect(result.stderr).toContain('Cannot find the note’s last commit date for `date: git`')
+    expect(result.stderr).toContain('cannot find the note’s last commit date for `date: git`')
+    // The check command agrees with the build.
+    const checked = run(['check', 'note.md'], dir)
+    expect(checked.code).toBe(1)
+    expect(checked.stderr).toContain('cannot find the note’s last commit date for `date: git`')
   })
 })
 
 describe('linkwright check', () => {
   it('should print each failing check and exit 1', () => {
-    const dir = workspace()
-    const result = run(['check'], dir)
+    const dir2 = workspace()
+    writeFileSync(join(dir2, 'reports/carton-pusher.md'), readFileSync(join(dir2, 'reports/carton-pusher.md'), 'utf8').replace(' (informative) ;', ' ;'))
+    const result = run(['check'], dir2)
     expect(result.code).toBe(1)
-    expect(result.stdout).toContain('reports/carton-pusher.md: 5 of 6 checks pass')
+    expect(result.stdout).toContain('reports/carton-pusher.md: 5 of 6 checks pass (1 FAIL)')
     expect(result.stdout).toMatch(/reports\/carton-pusher\.md:\d+ {2}FAIL {2}option B quick return: 1\.0000, limit ≥ 1\.1500/)
+  })
+
+  it('should show an informative FAIL apart and pass the gate, with the caution', () => {
+    const result = run(['check'], workspace())
+    expect(result.stdout).toContain('reports/carton-pusher.md: 5 of 5 checks pass; 1 informative check, not part of the gate (1 FAIL)')
+    expect(result.stdout).toMatch(/FAIL \(informative\) {2}option B quick return/)
+    expect(result.stdout).toContain('Caution: These calculations describe machinery that can hurt people.')
+    expect(result.code).toBe(0)
   })
 
   it('should exit 0 when every check passes', () => {

@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { messages } from '../../src/notes/messages.js'
+import { tallyChecks, tallyWords } from '../../src/notes/tally.js'
 import { BODY_LINE, build, read } from '../helpers/note.js'
 
 const crank = (body: string, id = 'drive') => `\`\`\`slider-crank #${id}\n${body}\n\`\`\`\n`
@@ -39,7 +40,7 @@ describe('bad input', () => {
       BODY_LINE,
       1,
       'unknown-block-kind',
-      messages['unknown-block-kind']('slidercrank', ['given', 'slider-crank-synthesis', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
+      messages['unknown-block-kind']('slidercrank', ['design-inputs', 'slider-crank-synthesis', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
     ])
   })
 
@@ -67,10 +68,37 @@ describe('bad input', () => {
     expect(reason).toContain('with a unit')
   })
 
-  it('should refuse a frequency where a rotational speed belongs, and say how to write it', async () => {
-    const [, , rule, reason] = await onlyError(crank('crank: 40 mm\nrod: 150 mm\nspeed: 2 Hz'))
-    expect(rule).toBe('dimension-mismatch')
-    expect(reason).toContain('write a rotational speed as rpm, rad/s or cycle/s')
+  it('should read a crank speed written as a frequency as turns per unit time, and say so', () => {
+    for (const speed of ['2 Hz', '120 1/min', '120 rpm', '120 strokes/min', '120 spm', '120 cycle/min']) {
+      const { file, model } = read(crank(`crank: 40 mm\nrod: 150 mm\nspeed: ${speed}`))
+      expect(file.messages, speed).toEqual([])
+      const input = model.outcomes[0]!.inputs.find((i) => i.name === 'speed')!
+      // 2 turns per second = 4π rad/s.
+      expect(input.value.type === 'quantity' && input.value.si, speed).toBeCloseTo(4 * Math.PI, 12)
+      expect(input.note, speed).toBe(/Hz|1\/min/.test(speed) ? 'read as turns per unit time' : undefined)
+    }
+  })
+
+  it('should read `/min` as the unit, not the function', () => {
+    const { file, model } = read('```design-inputs #duty\nfeed: 12 m/min\nsmaller: min(3 mm, 4 mm)\n```\n')
+    expect(file.messages).toEqual([])
+    expect(model.outcomes[0]!.inputs.map((i) => (i.value.type === 'quantity' ? i.value.si : null))).toEqual([0.2, 0.003])
+  })
+
+  it('should flag a wrong design input where it was written, saying where it is used', async () => {
+    const note = `\`\`\`design-inputs #duty\nrate: 96 mm ; [alpha]\n\`\`\`\n\n${crank('crank: 40 mm\nrod: 150 mm\nspeed: duty.rate')}`
+    const [line, column, rule, reason] = await onlyError(note)
+    expect([line, column, rule]).toEqual([BODY_LINE + 1, 7, 'dimension-mismatch'])
+    expect(reason).toBe(messages['dimension-mismatch']('duty.rate', `used at line ${BODY_LINE + 7} as \`speed\` (crank speed) of #drive`, 'expected a rotational speed (96 rpm, 120 1/min, 10 rad/s, 1.6 Hz), got a length (96 mm)'))
+  })
+
+  it('should keep an error in one design input to its line: the other inputs and their users go on', async () => {
+    const note = `\`\`\`design-inputs #duty\nrate: 96 rpm ; [nope] §2\nstroke: 80 mm\n\`\`\`\n\n${crank('crank: duty.stroke / 2\nrod: 150 mm\nspeed: duty.rate')}`
+    const [line, column, rule] = await onlyError(note)
+    // At the key itself, and the linkage is still evaluated.
+    expect([line, column, rule]).toEqual([BODY_LINE + 1, 16, 'unknown-reference'])
+    const { model } = read(note)
+    expect(model.outcomes[1]).not.toBeNull()
   })
 
   it('should refuse a negative length in the engineer’s words', async () => {
@@ -180,9 +208,30 @@ describe('bad input', () => {
     ])
   })
 
-  it('should skip blocks that use a block with errors, and still evaluate the others', async () => {
+  it('should skip blocks that use a block with errors, count one error, and still evaluate the others', async () => {
     const { file, model } = read(`${crank('crank: 40 N\nrod: 150 mm\nspeed: 60 rpm', 'bad')}\n${crank('crank: bad.crank\nrod: 150 mm\nspeed: 60 rpm', 'user')}\n${crank(`crank: 30 mm\n${base}`, 'fine')}`)
-    expect(file.messages.filter((m) => m.fatal === true).map((m) => m.ruleId)).toEqual(['dimension-mismatch', 'depends-on-error'])
+    expect(file.messages.map((m) => [m.ruleId, m.fatal])).toEqual([
+      ['dimension-mismatch', true],
+      // The follow-on is information: the error count is the count of mistakes.
+      ['depends-on-error', undefined],
+    ])
     expect(model.outcomes.map((o) => o !== null)).toEqual([false, false, true])
+  })
+
+  it('should count a check that cannot be evaluated, not drop it', () => {
+    const checks = '```checks\nfine: drive.stroke >= 10 mm\ntypo: drive.strok >= 10 mm\nbroken: bad.stroke >= 10 mm\n```\n'
+    const { model } = read(`${crank(`crank: 40 mm\n${base}`)}\n${crank('crank: 40 N\nrod: 150 mm\nspeed: 60 rpm', 'bad')}\n${checks}`)
+    expect(model.checks.map((c) => [c.label, c.status])).toEqual([
+      ['fine', 'pass'],
+      ['typo', 'not-evaluated'],
+      ['broken', 'not-evaluated'],
+    ])
+    expect(tallyWords(tallyChecks(model.checks))).toBe('1 of 3 checks pass (2 could not be evaluated)')
+  })
+
+  it('should keep a colon in a source as text', async () => {
+    const { file, built } = await build(crank(`crank: 40 mm ; [alpha] table 2: "pin radius", note: see 4\n${base}`))
+    expect(file.messages).toEqual([])
+    expect(built.ok).toBe(true)
   })
 })

@@ -4,9 +4,10 @@
  */
 import { describe, expect, it } from 'vitest'
 import { analyseFourBar, analyseSliderCrank, fourBar, sliderCrank } from '../../src/linkage/index.js'
+import { resultsDocument } from '../../src/notes/results-json.js'
 import type { NamedValue } from '../../src/notes/types.js'
 import { expectClose } from '../helpers/close.js'
-import { read } from '../helpers/note.js'
+import { BODY_LINE, read } from '../helpers/note.js'
 
 const si = (values: readonly NamedValue[], name: string): number => {
   const v = values.find((r) => r.name === name)?.value
@@ -61,15 +62,28 @@ describe('dependency order', () => {
     expectClose(si(model.outcomes[0]!.inputs, 'rod'), 0.105, { rel: 1e-14 })
   })
 
-  it('should take given values with units and sources', () => {
-    const { model } = read('```given #duty\nstroke: 80 mm ; [alpha] p. 4\nrate: 96 rpm\nload: 1.2 kN\n```\n')
+  it('should take design inputs with units and sources, each of its own kind', () => {
+    const { model } = read('```design-inputs #duty\nstroke: 80 mm ; [alpha] p. 4\nrate: 96 rpm\nload: 1.2 kN\nfill: 2 l\n```\n')
     const inputs = model.outcomes[0]!.inputs
-    expect(inputs.map((i) => [i.name, i.value.type, i.source])).toEqual([
-      ['stroke', 'quantity', '[alpha] p. 4'],
-      ['rate', 'quantity', null],
-      ['load', 'other', null],
+    expect(inputs.map((i) => [i.name, i.value.type, i.value.type === 'quantity' ? i.value.kind : null, i.source])).toEqual([
+      ['stroke', 'quantity', 'length', '[alpha] p. 4'],
+      ['rate', 'quantity', 'rotational-speed', null],
+      ['load', 'quantity', 'force', null],
+      ['fill', 'other', null, null],
     ])
     expect(model.references.map((r) => r.key)).toEqual(['alpha'])
+  })
+
+  it('should keep the SI unit of a value of another dimension, not the unit written', () => {
+    const { model } = read('```design-inputs #duty\nfill: 2 l\n```\n')
+    // 2 litres = 0.002 m³ (SI brochure: 1 L = 1 dm³).
+    expect(model.outcomes[0]!.inputs[0]!.value).toMatchObject({ type: 'other', si: 0.002, siUnit: 'm^3', unit: 'l', shown: 2 })
+  })
+
+  it('should still read the old block name `given`, with a warning at the fence', () => {
+    const { file, model } = read('```given #duty\nstroke: 80 mm\n```\n')
+    expect(model.outcomes[0]!.block.kind).toBe('design-inputs')
+    expect(file.messages.map((m) => [m.ruleId, m.fatal, m.line])).toEqual([['deprecated-block-kind', false, BODY_LINE]])
   })
 })
 
@@ -102,7 +116,7 @@ describe('checks', () => {
         ].join('\n'),
       ),
     )
-    expect(model.checks.map((c) => [c.label, c.passed])).toEqual([
+    expect(model.checks.map((c) => [c.label, c.status === 'pass'])).toEqual([
       ['stroke in band', true],
       ['stroke off band', false],
       ['angle', true],
@@ -176,5 +190,14 @@ describe('tables of a crank that only rocks', () => {
     expect(rows.filter((r) => !r.marker).map((r) => r.cells[0])).toEqual(['0', '60.000', '120.00', '180.00'])
     expect(rows[0]!.marker).toBe('crank limit')
     expect(rows[rows.length - 1]!.marker).toBe('crank limit')
+  })
+})
+
+describe('results.json', () => {
+  it('should store a given 4.2 kN in the SI unit, newtons, with the display as written', () => {
+    const { file, model } = read('```design-inputs #duty\nload: 4.2 kN ; [alpha]\nfill: 2 l\n```\n')
+    const doc = resultsDocument(model, file, 'test.md', model.date) as { blocks: { inputs: Record<string, { si: number; siUnit: string; kind: string }> }[] }
+    expect(doc.blocks[0]!.inputs.load).toMatchObject({ kind: 'force', si: 4200, siUnit: 'N' })
+    expect(doc.blocks[0]!.inputs.fill).toMatchObject({ kind: 'other', si: 0.002, siUnit: 'm^3' })
   })
 })

@@ -7,7 +7,7 @@ import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { build } from '../helpers/note.js'
 
-const kinds = ['slider-crank', 'eccentric', 'four-bar', 'given', 'checks', 'table', 'chart', 'drawing', 'assumptions', 'slidercrank']
+const kinds = ['slider-crank', 'eccentric', 'four-bar', 'design-inputs', 'given', 'checks', 'table', 'chart', 'drawing', 'assumptions', 'slidercrank']
 const names = ['crank', 'rod', 'offset', 'speed', 'ground', 'input', 'coupler', 'output', 'of', 'series', 'quantities', 'every', 'show', 'x', 'at_most', 'eccentricity', 'strap', 'sheave_diameter', 'shaft_diameter', 'path_radius', 'rotation', 'bogus']
 const values = [
   '40 mm', '-3 mm', '0 mm', '150 mm', '1e308 m', '60 rpm', '2 Hz', '12 kg', 'a.crank', 'drive.stroke', 'drive.stroke >= 10 mm',

@@ -8,8 +8,8 @@
 import type { Position } from 'unist'
 import { displayValue } from '../display.js'
 import { evaluateText, symbolsOf, tryParse, type Evaluated } from '../expressions.js'
-import { messages } from '../messages.js'
-import { describeValue, isUnit, kindOfUnit } from '../quantity.js'
+import { messages, type RuleId } from '../messages.js'
+import { describeValue, isUnit, valueOf } from '../quantity.js'
 import { reportError } from '../report.js'
 import type { Value } from '../types.js'
 import { citeSources } from './inputs.js'
@@ -58,16 +58,21 @@ export function parseCondition(text: string): Condition | null {
   return null
 }
 
+/** A trailing mark that makes a check informative: shown and counted apart, never failing the gate. */
+const INFORMATIVE = /\s*\((?:informative|for information)\)\s*$/i
+
 export const checksKind: BlockKind = {
   name: 'checks',
   label: 'Acceptance checks',
   needsId: false,
+  // A check on a block with errors is shown as not evaluated, and counted.
+  toleratesFailedDependencies: true,
   dependencies(block, ids) {
     const found = new Set<string>()
     for (const entry of block.body.entries) {
-      const condition = parseCondition(entry.value)
-      if (!condition) continue
-      for (const part of [condition.left, condition.right, condition.tolerance]) {
+      const text = entry.value.replace(INFORMATIVE, '')
+      const condition = parseCondition(text)
+      for (const part of condition ? [condition.left, condition.right, condition.tolerance] : [text]) {
         const node = part ? tryParse(part) : null
         if (node) for (const name of symbolsOf(node)) if (ids.has(name)) found.add(name)
       }
@@ -80,48 +85,49 @@ export const checksKind: BlockKind = {
       return null
     }
     const checks: CheckOutcome[] = []
-    let ok = true
     for (const entry of block.body.entries) {
-      citeSources(entry.source, entry.valuePlace, context)
-      const result = evaluateCheck(entry.name, entry.value, entry.source, entry.valuePlace, context, block.id)
-      if (result) checks.push(result)
-      else ok = false
+      citeSources(entry.source, entry.sourcePlace ?? entry.valuePlace, context)
+      const informative = INFORMATIVE.test(entry.value)
+      const text = entry.value.replace(INFORMATIVE, '')
+      const common = { label: entry.name, condition: text, informative, source: entry.source, line: entry.valuePlace.start.line, blockId: block.id }
+      checks.push(evaluateCheck(text, entry.valuePlace, context, common))
     }
-    if (!ok && checks.length === 0) return null
     return outcome(block, 'Acceptance checks', { checks })
   },
 }
 
-function evaluateCheck(
-  label: string,
-  text: string,
-  source: string | null,
-  place: Position,
-  context: EvaluationContext,
-  blockId: string | null,
-): CheckOutcome | null {
+type Common = Pick<CheckOutcome, 'label' | 'condition' | 'informative' | 'source' | 'line' | 'blockId'>
+
+/** A check that could not be evaluated: counted and shown, with why. */
+function notEvaluated(common: Common, reason: string): CheckOutcome {
+  return { ...common, status: 'not-evaluated', reason, actual: '—', limit: '—', margin: '—', actualSI: null, limitSI: null, unit: '', operator: '' }
+}
+
+function evaluateCheck(text: string, place: Position, context: EvaluationContext, common: Common): CheckOutcome {
   const { file } = context
+  const fail = (ruleId: RuleId, reason: string): CheckOutcome => {
+    reportError(file, ruleId, reason, place)
+    return notEvaluated(common, reason)
+  }
   const condition = parseCondition(text)
   if (!condition) {
-    reportError(file, 'check-syntax', messages['check-syntax'](text), place)
-    return null
-  }
-  const sides: Evaluated[] = [condition.left, condition.right, ...(condition.tolerance ? [condition.tolerance] : [])].map((part) =>
-    evaluateText(part, context.scope, {}, context.blockIds),
-  )
-  for (const side of sides) {
-    if (!side.ok) {
-      reportError(file, side.ruleId, side.reason, place)
-      return null
+    // No comparison: a yes/no result (`engine.self_starting`, `not drive.needs_stored_energy`).
+    const flag = evaluateText(text, context.scope, {}, context.blockIds)
+    if (flag.ok && typeof flag.value === 'boolean') {
+      return { ...common, status: flag.value ? 'pass' : 'fail', reason: null, actual: flag.value ? 'yes' : 'no', limit: 'yes', margin: '—', actualSI: flag.value ? 1 : 0, limitSI: 1, unit: '', operator: 'is' }
     }
+    if (!flag.ok && flag.ruleId === 'depends-on-error') return fail(flag.ruleId, flag.reason)
+    return fail('check-syntax', messages['check-syntax'](text))
   }
-  const [left, right, tolerance] = sides.map((s) => (s as { value: unknown }).value)
-  const numbers = [left, right, ...(condition.tolerance ? [tolerance] : [])].map(siOf)
-  const compared = [left, right, ...(condition.tolerance ? [tolerance] : [])]
+  const parts = [condition.left, condition.right, ...(condition.tolerance ? [condition.tolerance] : [])]
+  const sides: Evaluated[] = parts.map((part) => evaluateText(part, context.scope, {}, context.blockIds))
+  for (const side of sides) if (!side.ok) return fail(side.ruleId, side.reason)
+  const compared = sides.map((side) => (side as { value: unknown }).value)
+  const left = compared[0]
+  const numbers = compared.map(siOf)
   if (numbers.some((n) => n === null) || !compared.every((v) => sameDimension(v, left))) {
-    const detail = `it compares ${[left, right, ...(condition.tolerance ? [tolerance] : [])].map(describeValue).join(' with ')}`
-    reportError(file, 'check-not-evaluable', messages['check-not-evaluable'](text, detail), place)
-    return null
+    const detail = `it compares ${compared.map(describeValue).join(' with ')}`
+    return fail('check-not-evaluable', messages['check-not-evaluable'](text, detail))
   }
   const [actual, limit, band] = numbers as number[]
   let passed: boolean
@@ -149,28 +155,29 @@ function evaluateCheck(
       break
   }
   const shown = (si: number, like: unknown): string => displayValue(valueLike(si, like), context.meta.units, context.meta.digits).text
-  const limitText = condition.operator === '±' ? `${shown(limit!, right)} ± ${shown(band!, tolerance)}` : `${condition.operator.replace('>=', '≥').replace('<=', '≤')} ${shown(limit!, right)}`
+  const right = compared[1]
+  const limitText =
+    condition.operator === '±'
+      ? `${shown(limit!, right)} ± ${shown(band!, compared[2])}`
+      : `${condition.operator.replace('>=', '≥').replace('<=', '≤')} ${shown(limit!, right)}`
+  const kind = valueOf(left)
   return {
-    label,
-    condition: text,
-    passed,
+    ...common,
+    status: passed ? 'pass' : 'fail',
+    reason: null,
     actual: shown(actual!, left),
     limit: limitText,
     margin: shown(margin, left),
-    source,
-    line: place.start.line,
     actualSI: actual!,
     limitSI: limit!,
-    unit: isUnit(left) ? (kindOfUnit(left) ?? left.formatUnits()) : '',
+    unit: kind?.type === 'quantity' ? kind.kind : kind?.type === 'other' ? kind.siUnit : '',
     operator: condition.operator,
-    blockId,
   }
 }
 
 function siOf(value: unknown): number | null {
-  if (typeof value === 'number' && Number.isFinite(value)) return value
-  if (isUnit(value) && value.value !== null && Number.isFinite(value.value)) return value.value
-  return null
+  const v = valueOf(value)
+  return v && (v.type === 'quantity' || v.type === 'other') && Number.isFinite(v.si) ? v.si : null
 }
 
 function sameDimension(a: unknown, b: unknown): boolean {
@@ -180,12 +187,8 @@ function sameDimension(a: unknown, b: unknown): boolean {
 
 /** A displayable value of the same kind as `like`, holding an SI number. */
 function valueLike(si: number, like: unknown): Value {
-  if (isUnit(like)) {
-    const kind = kindOfUnit(like)
-    if (kind) return { type: 'quantity', kind, si }
-    const unit = like.formatUnits()
-    const scale = like.toNumber(unit) / (like.value ?? 1)
-    return { type: 'other', si, unit, shown: si * (Number.isFinite(scale) ? scale : 1) }
-  }
+  const v = valueOf(like)
+  if (v?.type === 'quantity') return { ...v, si }
+  if (v?.type === 'other') return { ...v, si, shown: v.si === 0 ? si : si * (v.shown / v.si) }
   return { type: 'quantity', kind: 'ratio', si }
 }

@@ -8,7 +8,7 @@ import { drawingKind } from './drawing.js'
 import { checksKind } from './checks.js'
 import { eccentricKind } from './eccentric.js'
 import { fourBarKind } from './four-bar.js'
-import { givenKind } from './given.js'
+import { designInputsKind } from './design-inputs.js'
 import type { BlockKind } from './kind.js'
 import { sliderCrankKind } from './slider-crank.js'
 import { synthesisKind } from './synthesis.js'
@@ -16,7 +16,7 @@ import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [givenKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
+  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

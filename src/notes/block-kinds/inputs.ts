@@ -4,7 +4,7 @@
  * as a quantity of the expected dimension.
  */
 import type { Position } from 'unist'
-import { evaluateText, symbolsOf, tryParse } from '../expressions.js'
+import { evaluateText, plainReference, symbolsOf, tryParse } from '../expressions.js'
 import { messages } from '../messages.js'
 import { readQuantity, type QuantityKind } from '../quantity.js'
 import { reportError } from '../report.js'
@@ -45,7 +45,7 @@ export function inputDependencies(block: CalcBlock, specs: readonly InputSpec[],
   return ids
 }
 
-/** Cite the `[key]` references a source text names; unknown keys are errors. */
+/** Cite the `[key]` references a source text names; an unknown key is an error at that key. */
 export function citeSources(text: string | null, place: Position | undefined, context: EvaluationContext): boolean {
   if (!text) return true
   let ok = true
@@ -54,7 +54,10 @@ export function citeSources(text: string | null, place: Position | undefined, co
     if (context.meta.references.has(key)) {
       context.citations.push({ key, line: place?.start.line ?? 0, column: place?.start.column ?? 0 })
     } else {
-      reportError(context.file, 'unknown-reference', messages['unknown-reference'](key), place)
+      // At the key itself when the source sits on one line.
+      const column = (place?.start.column ?? 1) + match.index!
+      const at = place && place.start.line === place.end.line ? { start: { line: place.start.line, column }, end: { line: place.start.line, column: column + match[0].length } } : place
+      reportError(context.file, 'unknown-reference', messages['unknown-reference'](key), at)
       ok = false
     }
   }
@@ -75,17 +78,17 @@ export function readInputs(
   const bySpec = new Map(specs.map((s) => [s.name, s]))
   const written = new Map<string, (typeof block.body.entries)[number]>()
   let ok = true
+  // Each of these mistakes stays on its line: the line is left out (or its citation
+  // dropped) and the block goes on, so one slip does not silence its dependents.
   for (const entry of block.body.entries) {
     if (!bySpec.has(entry.name)) {
       reportError(file, 'unknown-input', messages['unknown-input'](entry.name, kindName, specs.map((s) => s.name)), entry.namePlace)
-      ok = false
     } else if (written.has(entry.name)) {
       reportError(file, 'duplicate-input', messages['duplicate-input'](entry.name), entry.namePlace)
-      ok = false
     } else {
       written.set(entry.name, entry)
     }
-    if (!citeSources(entry.source, entry.valuePlace, context)) ok = false
+    citeSources(entry.source, entry.sourcePlace ?? entry.valuePlace, context)
   }
   for (const spec of specs) {
     if (spec.required && !written.has(spec.name)) {
@@ -141,13 +144,21 @@ export function readInputs(
       }
       const reading = readQuantity(evaluated.value, spec.kind)
       if (!reading.ok) {
-        reportError(file, 'dimension-mismatch', messages['dimension-mismatch'](spec.name, spec.label, reading.reason), place ?? block.place)
+        // A plain reference to a written input: the mistake is where that value was written.
+        const reference = plainReference(text)
+        const origin = reference ? context.scope.places.get(reference) : undefined
+        if (origin && place) {
+          const use = `used at line ${place.start.line} as \`${spec.name}\` (${spec.label}) of ${block.id ? `#${block.id}` : `the ${kindName} block`}`
+          reportError(file, 'dimension-mismatch', messages['dimension-mismatch'](reference!, use, reading.reason), origin)
+        } else {
+          reportError(file, 'dimension-mismatch', messages['dimension-mismatch'](spec.name, spec.label, reading.reason), place ?? block.place)
+        }
         ok = false
         continue
       }
       si[spec.name] = reading.si
       local[spec.name] = evaluated.value
-      values.set(spec.name, { ...base, value: { type: 'quantity', kind: spec.kind, si: reading.si } })
+      values.set(spec.name, { ...base, value: { type: 'quantity', kind: spec.kind, si: reading.si }, ...(reading.note ? { note: reading.note } : {}) })
     }
   }
   const stuck = pending.filter((s) => !done.has(s.name))

@@ -81,19 +81,26 @@ export interface SweepSource {
 /** A check's outcome. */
 export interface CheckOutcome {
   readonly label: string
+  /** The condition as written (without the informative mark). */
   readonly condition: string
-  readonly passed: boolean
+  /** PASS, FAIL, or not evaluated (an error in it or in what it uses). */
+  readonly status: 'pass' | 'fail' | 'not-evaluated'
+  /** Shown and counted apart; never fails the gate. */
+  readonly informative: boolean
+  /** Why it was not evaluated, or null. */
+  readonly reason: string | null
   readonly actual: string
   readonly limit: string
   /** How far inside (+) or outside (−) the limit, displayed. */
   readonly margin: string
   readonly source: string | null
   readonly line: number
-  /** The compared quantities in SI, for results.json. */
-  readonly actualSI: number
-  readonly limitSI: number
+  /** The compared quantities in SI, for results.json (null when not evaluated). */
+  readonly actualSI: number | null
+  readonly limitSI: number | null
+  /** Quantity kind of the compared values, or the SI unit of another dimension. */
   readonly unit: string
-  /** The comparison, e.g. '>=' or '±'. */
+  /** The comparison, e.g. '>=', '±' or 'is' (a yes/no result). */
   readonly operator: string
   readonly blockId: string | null
 }
@@ -222,6 +229,8 @@ export interface BlockKind {
   readonly label: string
   /** Whether the block must have an id. */
   readonly needsId: boolean
+  /** Evaluated even when a block it uses has errors (it shows what it could not evaluate). */
+  readonly toleratesFailedDependencies?: boolean
   /** Ids of other blocks this block uses. */
   dependencies(block: CalcBlock, blockIds: ReadonlySet<string>): Set<string>
   /** Evaluate, reporting problems on the file; null when the block has errors. */

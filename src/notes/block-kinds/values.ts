@@ -4,6 +4,7 @@
  */
 import { texQuantity } from '../display.js'
 import { math, toUnit, type QuantityKind } from '../quantity.js'
+import type { Position } from 'unist'
 import type { NamedValue, NoteMeta } from '../types.js'
 import type { EvaluationContext } from './kind.js'
 
@@ -31,12 +32,18 @@ export function flag(name: string, label: string, value: boolean): NamedValue {
   return { name, label, symbol: null, value: { type: 'flag', flag: value } }
 }
 
-/** Publish a block's inputs and results so that other blocks can use them as `id.name`. */
-export function publish(context: EvaluationContext, id: string | null, values: readonly NamedValue[]): void {
+/**
+ * Publish a block's inputs and results so that other blocks can use them as
+ * `id.name`, with the place each input was written (for messages at that place).
+ * @param broken names whose lines have errors, with why (a use is not a second error)
+ */
+export function publish(context: EvaluationContext, id: string | null, values: readonly NamedValue[], broken?: ReadonlyMap<string, string>): void {
   if (id === null) return
   const object: Record<string, unknown> = {}
   const missing = new Map<string, string>()
   for (const v of values) {
+    const place = (v as { place?: Position | null }).place
+    if (place) context.scope.places.set(`${id}.${v.name}`, place)
     switch (v.value.type) {
       case 'quantity':
         object[v.name] = toUnit(v.value.si, v.value.kind)
@@ -57,6 +64,7 @@ export function publish(context: EvaluationContext, id: string | null, values: r
   }
   context.scope.values.set(id, object)
   context.scope.unavailable.set(id, missing)
+  context.scope.broken.set(id, new Map(broken ?? []))
 }
 
 /** TeX of an SI quantity in the note's display units. */

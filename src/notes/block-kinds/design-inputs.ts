@@ -1,10 +1,11 @@
 /**
- * `given` blocks: named design inputs (a required stroke, a motor speed, a
- * supplier's datum) with units and sources, for other blocks and checks to use.
+ * `design-inputs` blocks: named design inputs (a required stroke, a motor
+ * speed, a supplier's datum) with units and sources, for other blocks and
+ * checks to use. A bad line is reported at that line; the others still count.
  */
 import { evaluateText, symbolsOf, tryParse } from '../expressions.js'
 import { messages } from '../messages.js'
-import { isUnit, kindOfUnit } from '../quantity.js'
+import { valueOf } from '../quantity.js'
 import { reportError } from '../report.js'
 import type { InputValue } from '../types.js'
 import { citeSources } from './inputs.js'
@@ -13,8 +14,12 @@ import { publish } from './values.js'
 
 const NAME = /^[A-Za-z][A-Za-z0-9_]*$/
 
-export const givenKind: BlockKind = {
-  name: 'given',
+/** The block kind's name, and the older name still read (with a warning) for one release. */
+export const DESIGN_INPUTS = 'design-inputs'
+export const DESIGN_INPUTS_OLD_NAME = 'given'
+
+export const designInputsKind: BlockKind = {
+  name: DESIGN_INPUTS,
   label: 'Design inputs',
   needsId: true,
   dependencies(block, ids) {
@@ -28,9 +33,9 @@ export const givenKind: BlockKind = {
   },
   evaluate(block, context) {
     const { file } = context
-    let ok = true
     const local: Record<string, unknown> = {}
     const inputs: InputValue[] = []
+    const broken = new Map<string, string>()
     if (block.body.items.length > 0) {
       reportError(file, 'block-syntax', messages['block-syntax']('expected `name: value ; source` lines'), block.place)
       return null
@@ -39,39 +44,35 @@ export const givenKind: BlockKind = {
     for (const entry of block.body.entries) {
       if (!NAME.test(entry.name)) {
         reportError(file, 'invalid-expression', messages['invalid-expression'](entry.name, 'a name must start with a letter and hold only letters, digits and _'), entry.namePlace)
-        ok = false
         continue
       }
-      if (!citeSources(entry.source, entry.valuePlace, context)) ok = false
+      // A bad citation is its own error; the value still counts.
+      citeSources(entry.source, entry.sourcePlace ?? entry.valuePlace, context)
       const evaluated = evaluateText(entry.value, context.scope, local, context.blockIds)
       if (!evaluated.ok) {
         reportError(file, evaluated.ruleId, evaluated.reason, entry.valuePlace)
-        ok = false
+        broken.set(entry.name, `its value at line ${entry.valuePlace.start.line} has errors`)
         continue
       }
-      const value = evaluated.value
-      const label = entry.name.replace(/_/g, ' ')
-      const base = { name: entry.name, label, symbol: null, expression: entry.value, source: entry.source, place: entry.valuePlace, given: true }
-      if (typeof value === 'number' && Number.isFinite(value)) {
-        inputs.push({ ...base, value: { type: 'quantity', kind: 'ratio', si: value } })
-      } else if (isUnit(value)) {
-        const kind = kindOfUnit(value)
-        if (kind) inputs.push({ ...base, value: { type: 'quantity', kind, si: value.value ?? Number.NaN } })
-        else {
-          const unit = value.formatUnits()
-          inputs.push({ ...base, value: { type: 'other', si: value.value ?? Number.NaN, unit, shown: value.toNumber(unit) } })
-        }
-      } else if (typeof value === 'boolean') {
-        inputs.push({ ...base, value: { type: 'flag', flag: value } })
-      } else {
+      const value = valueOf(evaluated.value)
+      if (value === null || value.type === 'text') {
         reportError(file, 'invalid-expression', messages['invalid-expression'](entry.value, 'expected a number or a quantity with a unit'), entry.valuePlace)
-        ok = false
+        broken.set(entry.name, `its value at line ${entry.valuePlace.start.line} has errors`)
         continue
       }
-      local[entry.name] = value
+      inputs.push({
+        name: entry.name,
+        label: entry.name.replace(/_/g, ' '),
+        symbol: null,
+        expression: entry.value,
+        source: entry.source,
+        place: entry.valuePlace,
+        given: true,
+        value,
+      })
+      local[entry.name] = evaluated.value
     }
-    if (!ok) return null
-    publish(context, block.id, inputs)
+    publish(context, block.id, inputs, broken)
     return outcome(block, 'Design inputs', { inputs })
   },
 }

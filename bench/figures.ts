@@ -47,12 +47,12 @@ export async function runFiguresBench(): Promise<void> {
   let n = 0
   // First render: includes loading vega and vega-lite.
   let start = performance.now()
-  await chartSvg(chartSpec(single, 5), 'first')
+  await chartSvg(chartSpec(single), 'first')
   const first = performance.now() - start
   // Uncached: a new title each time makes a new spec.
-  const uncached = await median(() => chartSvg({ ...chartSpec(single, 5), description: `run ${++n}` }, 'x'), 9, 2)
-  const cached = await median(() => chartSvg(chartSpec(single, 5), 'x'), 9, 2)
-  const threeUncached = await median(() => chartSvg({ ...chartSpec(three, 5), description: `run ${++n}` }, 'x'), 7, 1)
+  const uncached = await median(() => chartSvg({ ...chartSpec(single), description: `run ${++n}` }, 'x'), 9, 2)
+  const cached = await median(() => chartSvg(chartSpec(single), 'x'), 9, 2)
+  const threeUncached = await median(() => chartSvg({ ...chartSpec(three), description: `run ${++n}` }, 'x'), 7, 1)
   const drawingTime = await median(() => drawingSvg(drawing, 'd'), 21, 3)
 
   const build = async (text: string) => {

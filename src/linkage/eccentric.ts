@@ -7,6 +7,7 @@
  */
 
 import { LinkageError, mm, requireLength } from './errors.js'
+import { GEOMETRY_TOLERANCE } from './math.js'
 import { sliderCrank, type SliderCrankInput, type SliderCrankLinkage } from './slider-crank.js'
 
 /** Options for {@link eccentric}. */
@@ -50,15 +51,28 @@ export function eccentric(options: EccentricInput): EccentricLinkage {
   }
   const { eccentricity, strapLength, sheaveDiameter, shaftDiameter } = options
   const wall = sheaveDiameter / 2 - eccentricity - shaftDiameter / 2
-  if (wall < minimumWall) {
+  // A wall equal to the minimum meets it: rounding in the units conversion is not a shortfall.
+  if (wall < minimumWall - GEOMETRY_TOLERANCE * sheaveDiameter) {
     const needed = 2 * (eccentricity + shaftDiameter / 2 + minimumWall)
+    const [neededText, givenText] = distinct(needed, sheaveDiameter)
+    const [wallText, minimumText] = distinct(wall, minimumWall)
     throw new LinkageError(
       'sheave-does-not-enclose-shaft',
-      `The sheave (${mm(sheaveDiameter)} diameter) does not enclose the shaft (${mm(shaftDiameter)}) at ${mm(eccentricity)} eccentricity with ${mm(minimumWall)} wall: the thinnest wall is ${mm(wall)}; a sheave of at least ${mm(needed)} is needed`,
+      `The sheave (${givenText} diameter) leaves too thin a wall round the shaft (${mm(shaftDiameter)}) at ${mm(eccentricity)} eccentricity: the thinnest wall is ${wallText}, below the ${minimumText} minimum; a sheave of at least ${neededText} is needed`,
       { wall, minimumWall, needed },
     )
   }
   const { eccentricity: _e, strapLength: _s, sheaveDiameter: _d, shaftDiameter: _f, minimumWall: _w, ...rest } = options
   const equivalent = sliderCrank({ ...rest, crank: eccentricity, rod: strapLength })
   return { eccentricity, strapLength, sheaveDiameter, shaftDiameter, minimumWall, wall, equivalent }
+}
+
+/** Two lengths printed in mm with as many digits as it takes for the texts to differ (up to 12). */
+function distinct(a: number, b: number): [string, string] {
+  for (let digits = 6; digits <= 12; digits++) {
+    // Rounding dust (a wall of 1e-15 mm) is a wall of 0 mm.
+    const [p, q] = [a, b].map((v) => `${String(Number((Math.abs(v * 1000) < 1e-9 ? 0 : v * 1000).toPrecision(digits)))} mm`)
+    if (p !== q) return [p!, q!]
+  }
+  return [mm(a), mm(b)]
 }

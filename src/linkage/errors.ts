@@ -72,7 +72,7 @@ export function requireFinite(name: string, value: number): void {
 export type LinkageWarningCode =
   | 'crank-cannot-turn'
   | 'input-cannot-turn'
-  | 'dead-centres-need-momentum'
+  | 'dead-points-need-stored-energy'
   | 'change-point-linkage'
 
 /** An engineering caution about a linkage that can still be analysed. */

@@ -44,9 +44,10 @@ export function findExtreme(
   const count = angles.length
   let best = -1
   let bestValue = Number.NEGATIVE_INFINITY
-  // Bracket: the best finite sample.
+  // Bracket: the best finite sample (a limit angle's ±∞ is judged apart, by `extremesOf`).
   for (let i = 0; i < count; i++) {
     const v = sense * values[i]!
+    if (!Number.isFinite(v)) continue
     if (best < 0 ? v > bestValue : v > bestValue + SAMPLE_TIE * Math.abs(bestValue)) {
       bestValue = v
       best = i
@@ -63,7 +64,7 @@ export function findExtreme(
   }
   const signed = (theta: number): number => {
     const v = sense * evaluate(theta)
-    return Number.isNaN(v) ? Number.NEGATIVE_INFINITY : v
+    return Number.isFinite(v) ? v : Number.NEGATIVE_INFINITY
   }
   let theta = angles[best]!
   const refined = refine(signed, lo, hi)
@@ -97,4 +98,83 @@ function refine(f: (x: number) => number, lo: number, hi: number): { x: number; 
   }
   const x = (a + b) / 2
   return { x, value: f(x) }
+}
+
+/** The extremes of a swept quantity over a range. */
+export interface Extremes {
+  /** Largest signed value and its angle (+∞ at a limit angle where it grows without bound). */
+  readonly max: AngleValue
+  /** Least signed value and its angle (−∞ where it falls without bound). */
+  readonly min: AngleValue
+  /** Largest magnitude, ≥ 0, and its angle (+∞ where the quantity is unbounded). */
+  readonly absMax: AngleValue
+  /** Whether the quantity grows without bound towards an end of the range, upwards or downwards. */
+  readonly unbounded: { readonly positive: boolean; readonly negative: boolean }
+}
+
+/**
+ * How a quantity behaves approaching an end of a limited range: it diverges when
+ * its magnitude keeps growing as the end is approached (a velocity at a limit
+ * angle grows as ε^−½, an acceleration as ε^−3/2; a bounded one barely changes).
+ * Returns the sign it diverges towards, or 0.
+ */
+function divergesAt(evaluate: (theta: number) => number, end: number, inward: 1 | -1, span: number): -1 | 0 | 1 {
+  const far = evaluate(end + inward * 1e-6 * span)
+  const near = evaluate(end + inward * 1e-9 * span)
+  if (!Number.isFinite(far)) return 0
+  if (!Number.isFinite(near)) return near > 0 ? 1 : near < 0 ? -1 : 0
+  // A thousand times closer, over ten times larger, same sign: it diverges.
+  return Math.abs(near) > 10 * Math.abs(far) && Math.sign(near) === Math.sign(far) ? (near > 0 ? 1 : -1) : 0
+}
+
+/**
+ * Largest, least and largest-magnitude values of a quantity over a range, each
+ * with its angle (see {@link findExtreme}); on a limited range the ends are
+ * tested for a value that grows without bound, which is then reported as ±∞ at
+ * that end rather than as a large number.
+ */
+export function extremesOf(
+  angles: Float64Array,
+  values: Float64Array,
+  evaluate: (theta: number) => number,
+  range: AngleRange,
+  candidates: readonly number[] = [],
+  rotation: 1 | -1 = 1,
+): Extremes {
+  const max = findExtreme(angles, values, 1, evaluate, range, candidates)
+  const min = findExtreme(angles, values, -1, evaluate, range, candidates)
+  const periodic = range.end - range.start >= TAU - 1e-12
+  const span = range.end - range.start
+  let positive = false
+  let negative = false
+  let maxOut: AngleValue = max
+  let minOut: AngleValue = min
+  if (!periodic) {
+    for (const [end, inward] of [
+      [range.start, 1],
+      [range.end, -1],
+    ] as const) {
+      const sign = divergesAt(evaluate, end, inward, span)
+      if (sign > 0 && !positive) {
+        positive = true
+        maxOut = { theta: wrapTurn(end), value: Number.POSITIVE_INFINITY }
+      }
+      if (sign < 0 && !negative) {
+        negative = true
+        minOut = { theta: wrapTurn(end), value: Number.NEGATIVE_INFINITY }
+      }
+    }
+  }
+  let absMax: AngleValue
+  if (positive) absMax = { theta: maxOut.theta, value: Number.POSITIVE_INFINITY }
+  else if (negative) absMax = { theta: minOut.theta, value: Number.POSITIVE_INFINITY }
+  else {
+    // Equal magnitudes (an in-line drive's two strokes): the one met first in the cycle.
+    const [hi, lo] = [Math.abs(max.value), Math.abs(min.value)]
+    const tie = Math.abs(hi - lo) <= 1e-12 * Math.max(hi, lo)
+    const first = wrapTurn(rotation * (max.theta - range.start)) <= wrapTurn(rotation * (min.theta - range.start)) ? max : min
+    const pick = tie ? first : hi > lo ? max : min
+    absMax = { theta: pick.theta, value: Math.abs(pick.value) }
+  }
+  return { max: maxOut, min: minOut, absMax, unbounded: { positive, negative } }
 }

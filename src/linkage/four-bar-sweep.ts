@@ -4,8 +4,8 @@
  */
 
 import { LinkageError } from './errors.js'
-import { FOUR_BAR_STATE, H3, H3P, H4, H4P, THETA3, THETA4, solveFourBar, type FourBarLinkage } from './four-bar.js'
-import { includedAngle, wrapTurn } from './math.js'
+import { FOUR_BAR_STATE, H3, H3P, H4, H4P, THETA3, THETA4, fourBarRange, fourBarState, type FourBarLinkage } from './four-bar.js'
+import { includedAngle, wrapHalfTurn, wrapTurn } from './math.js'
 import type { CrankMotion } from './slider-crank-sweep.js'
 import type { AngleRange } from './types.js'
 
@@ -17,15 +17,18 @@ export class FourBarSweep {
   readonly inputAngle: Float64Array
   /** Time from the start of the range in the sense of rotation, s. */
   readonly time: Float64Array
-  /** Coupler angle θ3, rad. */
+  /** Coupler angle θ3, rad, within half a turn of {@link couplerReference}. */
   readonly couplerAngle: Float64Array
-  /** Output angle θ4, rad. */
+  /** Output angle θ4, rad, within half a turn of {@link outputReference} (a rocker's angles never jump by a turn). */
   readonly outputAngle: Float64Array
+  /** θ3 and θ4 at the start of the linkage's range: the angles are reported within half a turn of these. */
+  readonly couplerReference: number
+  readonly outputReference: number
   readonly couplerAngularVelocity: Float64Array
   readonly outputAngularVelocity: Float64Array
   readonly couplerAngularAcceleration: Float64Array
   readonly outputAngularAcceleration: Float64Array
-  /** Transmission angle μ between coupler and output, rad in [0, π]. */
+  /** Transmission angle μ between the coupler and the link it drives (the output, or the input when the output drives), rad in [0, π]. */
   readonly transmissionAngle: Float64Array
   /** Coupler-point path and speed (NaN without a coupler point). */
   readonly couplerPointX: Float64Array
@@ -52,6 +55,10 @@ export class FourBarSweep {
     this.couplerPointX = new Float64Array(count)
     this.couplerPointY = new Float64Array(count)
     this.couplerPointSpeed = new Float64Array(count)
+    const start = fourBarRange(linkage).range.start
+    fourBarState(linkage, start + 1e-6, this.state)
+    this.couplerReference = Number.isFinite(this.state[THETA3]!) ? this.state[THETA3]! : 0
+    this.outputReference = Number.isFinite(this.state[THETA4]!) ? this.state[THETA4]! : 0
   }
 
   /** Recompute every array in place for an input range and input motion. Returns this. */
@@ -79,7 +86,10 @@ export class FourBarSweep {
 
   private compute(motion: CrankMotion, origin: number, wrap: boolean): this {
     const { linkage, count, state } = this
-    const { input, coupler, output, groundX, groundY, circuitSign } = linkage
+    const { input } = linkage
+    const outputDriven = linkage.driver === 'output'
+    const couplerReference = this.couplerReference
+    const outputReference = this.outputReference
     const omega = linkage.rotation * motion.speed
     const alpha = linkage.rotation * (motion.angularAcceleration ?? 0)
     const omega2 = omega * omega
@@ -101,19 +111,19 @@ export class FourBarSweep {
     // One input angle per step: close the loop, then scale the coefficients by ω and α.
     for (let i = 0; i < count; i++) {
       const theta2 = inputAngle[i]!
-      solveFourBar(input, coupler, output, groundX, groundY, circuitSign, theta2, state)
+      fourBarState(linkage, theta2, state)
       const theta3 = state[THETA3]!
       const h3 = state[H3]!
       const h4 = state[H4]!
       const travel = theta2 - origin
       time[i] = omega === 0 ? Number.NaN : (wrap ? wrapTurn(linkage.rotation * travel) * linkage.rotation : travel) / omega
-      couplerAngle[i] = theta3
-      outputAngle[i] = state[THETA4]!
+      couplerAngle[i] = couplerReference + wrapHalfTurn(theta3 - couplerReference)
+      outputAngle[i] = outputReference + wrapHalfTurn(state[THETA4]! - outputReference)
       couplerAngularVelocity[i] = h3 * omega
       outputAngularVelocity[i] = h4 * omega
       couplerAngularAcceleration[i] = state[H3P]! * omega2 + h3 * alpha
       outputAngularAcceleration[i] = state[H4P]! * omega2 + h4 * alpha
-      transmissionAngle[i] = includedAngle(theta3, state[THETA4]!)
+      transmissionAngle[i] = includedAngle(theta3, outputDriven ? theta2 : state[THETA4]!)
       if (hasPoint) {
         const pointDirection = theta3 + pointAngle
         const c2 = Math.cos(theta2)

@@ -13,6 +13,7 @@ export {
   sliderVelocity,
   sliderAcceleration,
   rodAngle,
+  rodObliquity,
   POSITION,
   DX,
   DDX,
@@ -25,12 +26,14 @@ export {
   type SliderCrankLinkage,
   type SliderCrankDriver,
 } from './slider-crank.js'
-export { analyseSliderCrank, crankRange, type SliderCrankAnalysis, type AnalysisOptions } from './slider-crank-analysis.js'
+export { analyseSliderCrank, crankRange, type SliderCrankAnalysis, type SliderCrankExtremes, type AnalysisOptions } from './slider-crank-analysis.js'
 export { SliderCrankSweep, type CrankMotion } from './slider-crank-sweep.js'
 export {
   fourBar,
   grashof,
   solveFourBar,
+  fourBarState,
+  branchSign,
   fourBarRange,
   fourBarToggles,
   THETA3,
@@ -40,6 +43,7 @@ export {
   H3P,
   H4P,
   FOUR_BAR_STATE,
+  type FourBarBranch,
   type FourBarInput,
   type FourBarLinkage,
   type FourBarRange,
@@ -47,8 +51,8 @@ export {
   type GrashofClass,
   type GrashofResult,
 } from './four-bar.js'
-export { analyseFourBar, type FourBarAnalysis } from './four-bar-analysis.js'
+export { analyseFourBar, type FourBarAnalysis, type FourBarExtremes } from './four-bar-analysis.js'
 export { FourBarSweep } from './four-bar-sweep.js'
 export { eccentric, type EccentricInput, type EccentricLinkage } from './eccentric.js'
-export { findExtreme, inRange } from './extremes.js'
+export { findExtreme, extremesOf, inRange, type Extremes } from './extremes.js'
 export { synthesiseSliderCrank, type SliderCrankSynthesis } from './synthesis.js'

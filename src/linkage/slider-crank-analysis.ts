@@ -6,14 +6,18 @@
 
 import { deg, mm, type LinkageWarning } from './errors.js'
 import { fourBarRange, fourBarToggles } from './four-bar.js'
-import { findExtreme, inRange } from './extremes.js'
+import { extremesOf as extremesOver, inRange, type Extremes } from './extremes.js'
 import { GEOMETRY_TOLERANCE, TAU, clampedAsin, wrapTurn } from './math.js'
 import {
+  DDPHI,
   DDX,
+  DPHI,
   DX,
   POSITION,
+  ROD_ANGLE,
   SLIDER_CRANK_STATE,
   TRANSMISSION,
+  rodObliquity,
   sliderCrankState,
   type SliderCrankLinkage,
 } from './slider-crank.js'
@@ -47,26 +51,38 @@ export interface SliderCrankAnalysis {
   readonly outstrokeAngle: number | null
   /** Quick-return time ratio, slower stroke over faster stroke (≥ 1), at constant crank speed. */
   readonly timeRatio: number | null
-  /** Transmission angle extremes (angle between rod and path normal), rad. */
+  /** Transmission angle extremes (between the rod and the link it drives), rad. */
   readonly transmissionMin: AngleValue
   readonly transmissionMax: AngleValue
-  /** Largest rod angle from the slider path, π/2 − minimum transmission angle, rad. */
+  /** Largest rod angle from the slider path (straight path: π/2 − least rod-to-normal angle), rad. */
   readonly rodAngleMax: number
-  /** Largest |slider velocity| (signed value at its angle), m/s. */
-  readonly peakVelocity: AngleValue
-  /** Largest |slider acceleration| (signed value at its angle), m/s². */
-  readonly peakAcceleration: AngleValue
+  /** Largest, least and largest-magnitude value of every swept quantity, with their crank angles. */
+  readonly extremes: SliderCrankExtremes
   /** Mean slider speed 2·S·n over a full turn, m/s; null when the crank rocks. */
   readonly meanSpeed: number | null
   /** Time for one crank turn, s (Infinity at zero speed); null when the crank rocks. */
   readonly cycleTime: number | null
   /**
-   * Positions where the driving link cannot move the driven one: for a
-   * slider-driven crank the dead centres; for a crank that rocks, its limit angles.
+   * Dead points, where the driving link cannot move the driven one: for a
+   * slider-driven crank the dead centres; for a crank that rocks, its limit angles
+   * (value: the slider position there).
    */
-  readonly changePoints: readonly AngleValue[]
+  readonly deadPoints: readonly AngleValue[]
+  /** True when the slider drives a crank that turns fully: stored energy (a flywheel) must carry it through the dead points. */
+  readonly needsStoredEnergy: boolean
   /** Engineering cautions in plain words (crank cannot turn fully, dead centres to be carried through). */
   readonly warnings: readonly LinkageWarning[]
+}
+
+/** Extremes of the swept quantities of a slider-crank (SI: m, m/s, m/s², rad, rad/s, rad/s²). */
+export interface SliderCrankExtremes {
+  readonly position: Extremes
+  readonly velocity: Extremes
+  readonly acceleration: Extremes
+  readonly rodAngle: Extremes
+  readonly rodAngularVelocity: Extremes
+  readonly rodAngularAcceleration: Extremes
+  readonly transmissionAngle: Extremes
 }
 
 /** Options for {@link analyseSliderCrank}. */
@@ -116,32 +132,45 @@ export function analyseSliderCrank(
     timeRatio = Math.max(instrokeAngle, outstrokeAngle) / Math.min(instrokeAngle, outstrokeAngle)
   }
 
-  // 4. Extremes over a sweep, refined; closed-form angles are candidates.
+  // 4. Extremes of every swept quantity over a sweep, refined; closed-form angles are candidates.
   const sweep = new SliderCrankSweep(linkage, samples).update(range, { speed, angularAcceleration })
-  const muCandidates = transmissionCandidates(linkage, range)
-  const transmissionMin = findExtreme(sweep.crankAngle, sweep.transmissionAngle, -1, (t) => at(t, TRANSMISSION), range, muCandidates)
-  const transmissionMax = findExtreme(sweep.crankAngle, sweep.transmissionAngle, 1, (t) => at(t, TRANSMISSION), range, muCandidates)
-  const velocityAt = (t: number): number => at(t, DX) * omega
-  const accelerationAt = (t: number): number => at(t, DDX) * omega * omega + at(t, DX) * alpha
-  const absolute = (values: Float64Array): Float64Array => values.map(Math.abs)
-  const vPeak = findExtreme(sweep.crankAngle, absolute(sweep.velocity), 1, (t) => Math.abs(velocityAt(t)), range)
-  // In-line at constant speed the largest acceleration is at the outer dead centre: an exact candidate.
   const deadCentreAngles = [outer, inner].flatMap((d) => (d ? [d.theta] : []))
-  const aPeak = findExtreme(sweep.crankAngle, absolute(sweep.acceleration), 1, (t) => Math.abs(accelerationAt(t)), range, deadCentreAngles)
-  const peakVelocity = { theta: vPeak.theta, value: velocityAt(vPeak.theta) }
-  const peakAcceleration = { theta: aPeak.theta, value: accelerationAt(aPeak.theta) }
+  const ends = [range.start, range.end]
+  const extremesOf = (angles: Float64Array, values: Float64Array, evaluate: (t: number) => number, r: AngleRange, candidates: readonly number[] = []): Extremes =>
+    extremesOver(angles, values, evaluate, r, candidates, linkage.rotation)
+  const extremes: SliderCrankExtremes = {
+    position: extremesOf(sweep.crankAngle, sweep.position, (t) => at(t, POSITION), range, [...deadCentreAngles, ...ends]),
+    velocity: extremesOf(sweep.crankAngle, sweep.velocity, (t) => at(t, DX) * omega, range),
+    // In-line at constant speed the largest acceleration is at the outer dead centre: an exact candidate.
+    acceleration: extremesOf(sweep.crankAngle, sweep.acceleration, (t) => at(t, DDX) * omega * omega + at(t, DX) * alpha, range, deadCentreAngles),
+    rodAngle: extremesOf(sweep.crankAngle, sweep.rodAngle, (t) => rodObliquity(linkage, at(t, ROD_ANGLE)), range, [Math.PI / 2, (3 * Math.PI) / 2, ...ends]),
+    rodAngularVelocity: extremesOf(sweep.crankAngle, sweep.rodAngularVelocity, (t) => at(t, DPHI) * omega, range, [0, Math.PI]),
+    rodAngularAcceleration: extremesOf(sweep.crankAngle, sweep.rodAngularAcceleration, (t) => at(t, DDPHI) * omega * omega + at(t, DPHI) * alpha, range),
+    transmissionAngle: extremesOf(
+      sweep.crankAngle,
+      sweep.transmissionAngle,
+      (t) => at(t, TRANSMISSION),
+      range,
+      linkage.driver === 'slider' ? [...deadCentreAngles, ...ends] : transmissionCandidates(linkage, range),
+    ),
+  }
+  const transmissionMin = extremes.transmissionAngle.min
+  const transmissionMax = extremes.transmissionAngle.max
 
-  // 5. Speed figures and change points.
+  // 5. Speed figures and dead points.
   const meanSpeed = full ? (2 * stroke * speed) / TAU : null
   const cycleTime = full ? (speed === 0 ? Number.POSITIVE_INFINITY : TAU / speed) : null
-  const changePoints: AngleValue[] = []
+  const deadPoints: AngleValue[] = []
   if (linkage.driver === 'slider') {
-    for (const d of [outer, inner]) if (d) changePoints.push({ theta: d.theta, value: d.position })
+    for (const d of [outer, inner]) if (d) deadPoints.push({ theta: d.theta, value: d.position })
   }
   if (limits) {
-    for (const theta of limits) changePoints.push({ theta, value: at(theta, POSITION) })
+    for (const theta of limits) deadPoints.push({ theta, value: at(theta, POSITION) })
   }
-  const warnings = sliderCrankWarnings(linkage, limits, changePoints)
+  const needsStoredEnergy = linkage.driver === 'slider' && full && deadPoints.length > 0
+  // The rod's greatest lean from the line of stroke, whichever way it leans.
+  const rodAngleMax = Math.max(Math.abs(extremes.rodAngle.max.value), Math.abs(extremes.rodAngle.min.value))
+  const warnings = sliderCrankWarnings(linkage, limits, deadPoints)
   return {
     linkage,
     speed,
@@ -159,12 +188,12 @@ export function analyseSliderCrank(
     timeRatio,
     transmissionMin,
     transmissionMax,
-    rodAngleMax: Math.PI / 2 - transmissionMin.value,
-    peakVelocity,
-    peakAcceleration,
+    rodAngleMax,
+    extremes,
     meanSpeed,
     cycleTime,
-    changePoints,
+    deadPoints,
+    needsStoredEnergy,
     warnings,
   }
 }
@@ -172,7 +201,7 @@ export function analyseSliderCrank(
 function sliderCrankWarnings(
   linkage: SliderCrankLinkage,
   limits: readonly [number, number] | null,
-  changePoints: readonly AngleValue[],
+  deadPoints: readonly AngleValue[],
 ): LinkageWarning[] {
   const warnings: LinkageWarning[] = []
   const { crank, rod, offset } = linkage
@@ -188,12 +217,12 @@ function sliderCrankWarnings(
       details: { rod, needed, from: limits[0], to: limits[1] },
     })
   }
-  if (linkage.driver === 'slider' && changePoints.length > 0) {
-    const angles = changePoints.map((p) => deg(p.theta)).join(' and ')
+  if (linkage.driver === 'slider' && deadPoints.length > 0) {
+    const angles = deadPoints.map((p) => deg(p.theta)).join(' and ')
     warnings.push({
-      code: 'dead-centres-need-momentum',
-      message: `The slider drives: at the dead centres (crank at ${angles}) it cannot turn the crank, so a flywheel or other stored momentum must carry the crank through them`,
-      details: { count: changePoints.length },
+      code: 'dead-points-need-stored-energy',
+      message: `The slider drives: at the dead points (crank at ${angles}) it cannot turn the crank, so a flywheel or other stored energy must carry the crank through them`,
+      details: { count: deadPoints.length },
     })
   }
   return warnings

@@ -14,6 +14,7 @@ import {
   ROD_ANGLE,
   SLIDER_CRANK_STATE,
   TRANSMISSION,
+  rodObliquity,
   sliderCrankState,
   type SliderCrankLinkage,
 } from './slider-crank.js'
@@ -41,7 +42,7 @@ export class SliderCrankSweep {
   readonly velocity: Float64Array
   /** Slider acceleration along the path, m/s². */
   readonly acceleration: Float64Array
-  /** Rod angle φ, rad. */
+  /** Rod angle from the line of stroke (obliquity), rad in (−π/2, π/2], positive counter-clockwise. */
   readonly rodAngle: Float64Array
   /** Rod angular velocity, rad/s. */
   readonly rodAngularVelocity: Float64Array
@@ -117,7 +118,7 @@ export class SliderCrankSweep {
       position[i] = state[POSITION]!
       velocity[i] = dx * omega
       acceleration[i] = state[DDX]! * omega2 + dx * alpha
-      rodAngle[i] = state[ROD_ANGLE]!
+      rodAngle[i] = rodObliquity(linkage, state[ROD_ANGLE]!)
       rodAngularVelocity[i] = dphi * omega
       rodAngularAcceleration[i] = state[DDPHI]! * omega2 + dphi * alpha
       transmissionAngle[i] = state[TRANSMISSION]!

@@ -181,6 +181,15 @@ export function rodAngle(crank: number, rod: number, offset: number, side: numbe
   return Math.atan2(-u, side * safeSqrt(rod * rod - u * u, rod * rod))
 }
 
+/**
+ * The rod's angle from the line of stroke (its obliquity), rad in (−π/2, π/2],
+ * positive counter-clockwise: the rod direction φ measured from +x for a slider on
+ * the +x side, from −x for one on the −x side.
+ */
+export function rodObliquity(linkage: SliderCrankLinkage, phi: number): number {
+  return wrapHalfTurn(linkage.sliderSide === 1 ? phi : phi - Math.PI)
+}
+
 /** Indices into the state written by {@link sliderCrankState}. */
 export const POSITION = 0
 /** dx/dθ (or ds/dθ along an arc path). */
@@ -192,7 +201,12 @@ export const ROD_ANGLE = 3
 export const DPHI = 4
 /** d²φ/dθ² */
 export const DDPHI = 5
-/** Transmission angle, rad in [0, π/2]: the angle between the rod and the normal to the path (90° with the rod along the path). */
+/**
+ * Transmission angle, rad in [0, π/2], between the rod and the link it drives:
+ * crank-driven, the angle between the rod and the normal to the path (90° with the
+ * rod along the path); slider-driven, the angle between the rod and the crank
+ * (0° at the dead points, where the slider cannot turn the crank).
+ */
 export const TRANSMISSION = 6
 /** Length of the state array (the extra slots are scratch for the arc path). */
 export const SLIDER_CRANK_STATE = 7 + FOUR_BAR_STATE
@@ -204,7 +218,11 @@ export const SLIDER_CRANK_STATE = 7 + FOUR_BAR_STATE
  */
 export function sliderCrankState(linkage: SliderCrankLinkage, theta: number, out: Float64Array): boolean {
   const fb = linkage.equivalentFourBar
-  if (fb === null) return straightState(linkage.crank, linkage.rod, linkage.offset, linkage.sliderSide, theta, out)
+  if (fb === null) {
+    const ok = straightState(linkage.crank, linkage.rod, linkage.offset, linkage.sliderSide, theta, out)
+    if (ok && linkage.driver === 'slider') out[TRANSMISSION] = foldedAngle(out[ROD_ANGLE]!, theta)
+    return ok
+  }
   const scratch = 7
   const ok = solveFourBar(fb.input, fb.coupler, fb.output, fb.groundX, fb.groundY, fb.circuitSign, theta, out, scratch)
   if (!ok) {
@@ -220,9 +238,14 @@ export function sliderCrankState(linkage: SliderCrankLinkage, theta: number, out
   out[ROD_ANGLE] = out[scratch + THETA3]!
   out[DPHI] = out[scratch + H3]!
   out[DDPHI] = out[scratch + H3P]!
-  const mu = includedAngle(out[scratch + THETA3]!, psi)
-  out[TRANSMISSION] = mu > Math.PI / 2 ? Math.PI - mu : mu
+  out[TRANSMISSION] = linkage.driver === 'slider' ? foldedAngle(out[scratch + THETA3]!, theta) : foldedAngle(out[scratch + THETA3]!, psi)
   return true
+}
+
+/** The angle between two lines (not directions), rad in [0, π/2]. */
+function foldedAngle(a: number, b: number): number {
+  const mu = includedAngle(a, b)
+  return mu > Math.PI / 2 ? Math.PI - mu : mu
 }
 
 function straightState(crank: number, rod: number, offset: number, side: number, theta: number, out: Float64Array): boolean {

@@ -136,3 +136,25 @@ export function texUnit(unit: string): string {
 export function showQuantity(si: number, kind: QuantityKind, units: DisplayUnits, digits: number): string {
   return displayValue({ type: 'quantity', kind, si }, units, digits).text
 }
+
+/** A number with a fixed count of decimals (a table column's), with a true minus sign; −0 prints as 0. */
+export function formatFixed(value: number, decimals: number): string {
+  if (Number.isNaN(value)) return 'n/a'
+  if (!Number.isFinite(value)) return value > 0 ? '∞' : '−∞'
+  const text = Math.abs(value).toFixed(decimals)
+  return value < 0 && Number(text) !== 0 ? `−${text}` : text
+}
+
+/**
+ * Decimals for a column of numbers: enough for `digits` significant digits on the
+ * column's largest magnitude, the same for every row (so that the column reads down).
+ */
+export function columnDecimals(values: ArrayLike<number>, digits: number): number {
+  let largest = 0
+  for (let i = 0; i < values.length; i++) {
+    const v = Math.abs(values[i]!)
+    if (Number.isFinite(v)) largest = Math.max(largest, v)
+  }
+  if (largest === 0) return 0
+  return Math.min(10, Math.max(0, digits - 1 - Math.floor(Math.log10(largest))))
+}

@@ -7,6 +7,7 @@ import type { MathNode } from 'mathjs'
 import type { Position } from 'unist'
 import { evaluateExpression, parseQuantityExpression } from './quantity.js'
 import { messages, type RuleId } from './messages.js'
+import { RENAMED_RESULTS } from './block-kinds/extremes.js'
 
 /** Values of the evaluated blocks by id, and why some values are missing. */
 export interface Scope {
@@ -86,6 +87,11 @@ export function evaluateText(
       const broken = scope.broken.get(id)?.get(name)
       if (broken) {
         problem = { ok: false, ruleId: 'depends-on-error', reason: messages['invalid-expression'](text, `\`${id}.${name}\` has no value: ${broken}`) }
+        return
+      }
+      const renamed = RENAMED_RESULTS.get(name)
+      if (renamed) {
+        problem = { ok: false, ruleId: 'renamed-result', reason: messages['renamed-result'](`${id}.${name}`, renamed) }
         return
       }
       const why = scope.unavailable.get(id)?.get(name)

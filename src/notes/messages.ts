@@ -33,6 +33,8 @@ export const messages = {
   'invalid-choice': (name: string, value: string, allowed: readonly string[]) =>
     `Unexpected \`${value}\` for \`${name}\`, expected one of ${list(allowed)}`,
   'unknown-block': (id: string) => `Cannot find a block with the id \`${id}\``,
+  'renamed-result': (reference: string, instead: string) =>
+    `Cannot use \`${reference}\`: a signed peak could pass a check it should fail, so the extremes now have their own names; write ${instead}`,
   'unknown-result': (id: string, name: string, known: readonly string[]) =>
     `Cannot find \`${name}\` in block \`${id}\`, expected one of ${list(known)}`,
   'dependency-cycle': (path: readonly string[]) =>

@@ -9,6 +9,7 @@ import { KINDS } from './quantity.js'
 import type { NoteModel } from './note.js'
 import type { NamedValue } from './types.js'
 import { CAUTION } from './caution.js'
+import { extremesValues } from './block-kinds/extremes.js'
 import { tallyChecks } from './tally.js'
 
 /** Identifier and version of this layout. */
@@ -71,7 +72,7 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
         inputs: Object.fromEntries(
           (outcome?.inputs ?? []).map((i) => [i.name, json(i, { expression: i.expression, source: i.source, given: i.given })]),
         ),
-        results: Object.fromEntries((outcome?.results ?? []).map((r) => [r.name, json(r)])),
+        results: Object.fromEntries([...(outcome?.results ?? []), ...extremesValues(outcome?.extremes ?? [])].map((r) => [r.name, json(r)])),
         warnings: outcome?.warnings ?? [],
       }
     }),

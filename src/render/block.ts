@@ -5,7 +5,7 @@
 import type { Element, ElementContent } from 'hast'
 import { h } from 'hastscript'
 import type { BlockOutcome } from '../notes/block-kinds/kind.js'
-import { displayValue } from '../notes/display.js'
+import { displayValue, formatNumber } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
 import { animationSvg, drawingSvg } from './drawing-svg.js'
@@ -35,6 +35,7 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, block.kind === 'given' ? 'Design inputs' : 'Inputs'))
   if (outcome.method.length > 0) parts.push(methodList(outcome, context))
   if (outcome.results.length > 0) parts.push(resultsTable(outcome.results, context))
+  if (outcome.extremes.length > 0) parts.push(extremesTable(outcome, context))
   if (outcome.warnings.length > 0) {
     parts.push(
       h('div.lw-warnings', { role: 'note', ariaLabel: 'Warnings' }, [
@@ -135,6 +136,32 @@ function resultsTable(results: readonly NamedValue[], context: RenderContext): E
   )
 }
 
+/** One row a swept quantity: its least and greatest values and its largest magnitude, each with its angle. */
+function extremesTable(outcome: BlockOutcome, context: RenderContext): Element {
+  const { meta } = context.model
+  const cell = (v: NamedValue): ElementContent =>
+    v.value.type === 'none' ? h('span.lw-none', { title: v.value.reason }, 'unbounded') : h('span.lw-number', displayValue(v.value, meta.units, meta.digits).number)
+  const angleLabel = outcome.sweep?.convention.label ?? 'crank angle'
+  return h('div.lw-extremes', [
+    table(
+      'lw-extremes-table',
+      `Extremes over the ${outcome.sweep?.fullTurn === false ? 'range' : 'cycle'}`,
+      ['Quantity', 'Unit', 'Least', 'at', 'Greatest', 'at', 'Largest magnitude', 'at'],
+      outcome.extremes.map((row) => [
+        [h('span', row.quantity.label), h('br'), h('code.lw-name', `${row.quantity.name}_min, _max, _abs_max`)],
+        displayValue(row.max.value.type === 'none' ? row.min.value : row.max.value, meta.units, meta.digits).label,
+        cell(row.min),
+        cell(row.minAt),
+        cell(row.max),
+        cell(row.maxAt),
+        cell(row.absMax),
+        cell(row.absMaxAt),
+      ]),
+    ),
+    h('p.lw-step-note', `Signed values: least and greatest; the largest magnitude is never negative. Each “at” is the ${angleLabel} (°) where it occurs; add _at to a name for it (e.g. ${outcome.extremes[0]!.quantity.name}_abs_max_at). Extremes are bracketed by a sweep and refined by bisection on the slope; unbounded values grow without limit at a limit angle.`),
+  ])
+}
+
 function methodList(outcome: BlockOutcome, context: RenderContext): Element {
   return h('div.lw-method', [
     h('p.lw-part-title', 'Method'),
@@ -204,17 +231,24 @@ function raw(value: string): ElementContent {
 
 function chartFigure(block: CalcBlock, outcome: BlockOutcome, context: RenderContext): Element {
   const chart = outcome.chart!
+  const { meta } = context.model
   const rendered = context.charts.get(block.index)
   const what = `${chart.series.map((s) => s.label).join(', ')} against ${chart.x.label} for #${chart.of}`
-  const label = `Chart: ${chart.title ? `${chart.title}: ` : ''}${what}${chart.limit ? `; limit ${chart.limit.sense} ${chart.limit.value}` : ''}`
+  const limitSeries = chart.limit ? chart.series.find((s) => s.name === chart.limit!.series) : undefined
+  const limitText = chart.limit && limitSeries ? `${chart.limit.sense} ${chart.limit.symmetric ? '±' : ''}${formatNumber(chart.limit.value, meta.digits)}${limitSeries.unit === '°' ? '°' : ` ${limitSeries.unit}`}` : ''
+  const label = `Chart: ${chart.title ? `${chart.title}: ` : ''}${what}${limitText ? `; limit ${limitText}` : ''}`
+  // Marker tags on the chart, spelt out once.
+  const tags = [...new Map(chart.markers.map((m) => [m.short, m.label])).entries()].map(([short, words]) => (short === words ? words : `${short} ${words}`))
+  const caption: (string | Element)[] = [`${what}; ${chart.samples} points of the core’s sweep`]
+  if (chart.angles) caption.push(`; crank angle ${chart.angles}`)
+  if (tags.length > 0) caption.push(`; dashed rules: ${tags.join(', ')}`)
+  if (chart.peaks.length > 0) caption.push('; points mark the exact greatest and least values found by the analysis')
+  if (limitText) caption.push(`; red dashed line: the limit, ${limitText}${chart.limit!.symmetric ? ' (both signs)' : ''}${chart.limit!.source ? ` (${chart.limit!.source})` : ''}, with any stretch that breaks it shaded`)
+  if (chart.unbounded.length > 0) caption.push('; the value axis is cut: the rates grow without bound at the limit angles')
+  if (rendered) caption.push('. Vega-lite spec: ', h('a', { href: rendered.specFile }, h('code', rendered.specFile)))
   return h('figure.lw-figure.lw-chart', [
     rendered ? raw(rendered.svg.replace(/^<svg /, `<svg role="img" aria-label="${escapeAttribute(label)}" `)) : h('p.lw-error', 'Chart not rendered.'),
-    h('figcaption', [
-      `${what}; ${chart.samples} points of the core’s sweep`,
-      chart.markers.length > 0 ? '; dashed rules at the dead centres, toggles and limits' : '',
-      chart.limit ? `; the limit (${chart.limit.sense}) in red, with the stretch that breaks it shaded` : '',
-      rendered ? ['. Vega-lite spec: ', h('a', { href: rendered.specFile }, h('code', rendered.specFile))] : '',
-    ]),
+    h('figcaption', caption),
   ])
 }
 

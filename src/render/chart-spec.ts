@@ -6,7 +6,6 @@
  * in black-and-white print and for colour-blind readers.
  */
 import type { ChartOutcome, ChartSeries } from '../notes/block-kinds/kind.js'
-import { formatNumber } from '../notes/display.js'
 
 /** Series colours and dash patterns, in order. */
 export const SERIES_STYLE: readonly { readonly color: string; readonly dash: readonly number[] }[] = [
@@ -39,7 +38,7 @@ export const CHART_CONFIG = {
     domainColor: '#4d5962',
     tickColor: '#4d5962',
   },
-  legend: { orient: 'top', labelFontSize: 10, title: null, symbolStrokeWidth: 2, symbolSize: 260, symbolType: 'stroke' },
+  legend: { orient: 'bottom', labelFontSize: 10, title: null, symbolStrokeWidth: 2, symbolSize: 260, symbolType: 'stroke' },
   line: { strokeWidth: 1.6 },
 } as const
 
@@ -48,24 +47,25 @@ type Spec = Record<string, unknown>
 const title = (label: string, unit: string): string => (unit ? `${label} (${unit})` : label)
 
 /** The vega-lite spec of a chart, with its data inline. */
-export function chartSpec(chart: ChartOutcome, digits: number): Spec {
+export function chartSpec(chart: ChartOutcome): Spec {
   const panels =
     chart.layout === 'overlaid'
-      ? [panel(chart, chart.series, digits, true)]
-      : chart.series.map((s, i) => panel(chart, [s], digits, i === chart.series.length - 1, i))
+      ? [panel(chart, chart.series, true)]
+      : chart.series.map((s, i) => panel(chart, [s], i === chart.series.length - 1, i))
   const description = `${chart.title ?? 'Chart'}: ${chart.series.map((s) => title(s.label, s.unit)).join(', ')} against ${title(chart.x.label, chart.x.unit)} for #${chart.of}`
   const base: Spec = {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     description,
     config: CHART_CONFIG,
   }
-  if (chart.title) base.title = { text: chart.title, anchor: 'start', fontSize: 11.5, fontWeight: 'bold', font: FONT, color: '#1c2226' }
+  // The block's heading carries the title: the chart does not print it again.
   return panels.length === 1
     ? { ...base, ...panels[0] }
     : { ...base, vconcat: panels, spacing: 10, resolve: { scale: { color: 'independent', strokeDash: 'independent' } } }
 }
 
-function panel(chart: ChartOutcome, series: readonly ChartSeries[], digits: number, showXTitle: boolean, offset = 0): Spec {
+function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: boolean, offset = 0): Spec {
+  const top = offset === 0
   // Long form, one row per point; `i` keeps the sweep order (a path's x is not monotonic).
   const rows: { x: number; y: number; series: string; i: number }[] = []
   for (const s of series) {
@@ -83,6 +83,7 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], digits: numb
   const yScale: Spec = { zero: false, nice: !chart.equalAspect }
   if (chart.equalAspect) xScale.nice = false
   if (chart.yRange) yScale.domain = [...chart.yRange]
+  else if (!chart.equalAspect) yScale.domain = roomyDomain(chart, series)
   const angleAxis = chart.x.kind === 'angle' && chart.x.unit === '°'
   const xAxis: Spec = { title: showXTitle ? title(chart.x.label, chart.x.unit) : null, labels: true }
   if (angleAxis && chart.xRange) xAxis.values = ticks(chart.xRange[0], chart.xRange[1])
@@ -118,56 +119,49 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], digits: numb
   }
   layers.push(line)
   if (chart.markers.length > 0) {
-    const markers = chart.markers.map((m) => ({ x: round(m.x), label: m.label }))
+    const markers = chart.markers.map((m) => ({ x: round(m.x), label: m.short }))
     layers.push({
       data: { values: markers },
       mark: { type: 'rule', color: MARKER_COLOR, strokeDash: [3, 3], strokeWidth: 0.9 },
       encoding: { x: { field: 'x', type: 'quantitative' } },
     })
-    layers.push({
-      data: { values: markers },
-      mark: { type: 'text', angle: 270, align: 'right', baseline: 'bottom', dx: -4, dy: -3, fontSize: 9, color: MARKER_COLOR, font: FONT },
-      encoding: { x: { field: 'x', type: 'quantitative' }, y: { value: 2 }, text: { field: 'label' } },
-    })
+    // Their tags sit above the frame, clear of the curves (the top panel only; the caption spells them out).
+    if (top) {
+      layers.push({
+        data: { values: markers },
+        mark: { type: 'text', align: 'center', baseline: 'bottom', dy: -3, fontSize: 8.5, color: MARKER_COLOR, font: FONT, clip: false },
+        encoding: { x: { field: 'x', type: 'quantitative' }, y: { value: 0 }, text: { field: 'label' } },
+      })
+    }
   }
-  // Peaks: the analysis's exact extreme where there is one, else the largest |value| sampled.
-  const xText = (x: number) => (chart.x.unit === '°' ? `${formatNumber(x, 4)}°` : `${formatNumber(x, 4)} ${chart.x.unit}`)
-  const yText = (y: number, s: ChartSeries) => `${formatNumber(y, Math.min(digits, 4))}${s.unit === '°' ? '°' : ` ${s.unit}`}`
-  const peaks = series.flatMap((s) => {
-    const exact = chart.peaks.find((p) => p.series === s.name)
-    if (exact) return [{ x: round(exact.x), y: round(exact.y), text: `${exact.label} ${yText(exact.y, s)} at ${xText(exact.x)}` }]
-    // Against another quantity (a path, a phase plot) the largest sample means little: leave it.
-    if (chart.x.kind !== 'angle' && chart.x.kind !== 'time') return []
-    let best = -1
-    for (let i = 0; i < s.values.length; i++) if (Number.isFinite(s.values[i]!) && (best < 0 || Math.abs(s.values[i]!) > Math.abs(s.values[best]!))) best = i
-    if (best < 0) return []
-    const x = chart.x.values[best]!
-    const y = s.values[best]!
-    return [{ x: round(x), y: round(y), text: `largest |value| ${yText(y, s)} at ${xText(x)}` }]
-  })
+  // The analysis's exact extremes: a point, its words above a greatest value and below a least one,
+  // turned inwards near the sides so that no label runs off the plot.
+  const [x0, x1] = chart.xRange ?? extent(chart.x.values)
+  const peaks = chart.peaks
+    .filter((p) => series.some((s) => s.name === p.series) && Number.isFinite(p.x) && Number.isFinite(p.y))
+    .map((p) => ({ x: round(p.x), y: round(p.y), text: p.text, side: p.side, right: (p.x - x0) / (x1 - x0 || 1) > 0.55 }))
   layers.push({
     data: { values: peaks },
     mark: { type: 'point', filled: true, size: 28, color: '#1c2226' },
     encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' } },
   })
-  layers.push({
-    data: { values: peaks },
-    mark: { type: 'text', align: 'left', dx: 5, dy: -7, fontSize: 9.5, color: '#1c2226', font: FONT },
-    encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
-  })
+  for (const side of ['above', 'below'] as const) {
+    for (const right of [false, true]) {
+      const group = peaks.filter((p) => p.side === side && p.right === right)
+      if (group.length === 0) continue
+      layers.push({
+        data: { values: group },
+        mark: { type: 'text', align: right ? 'right' : 'left', baseline: side === 'above' ? 'bottom' : 'top', dx: right ? -4 : 4, dy: side === 'above' ? -5 : 5, fontSize: 9, color: '#1c2226', font: FONT },
+        encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
+      })
+    }
+  }
   if (limit) {
-    const target = series.find((s) => s.name === limit.series)!
-    const text = `${limit.sense} ${limit.symmetric ? '±' : ''}${formatNumber(limit.value, 4)}${target.unit === '°' ? '°' : ` ${target.unit}`}`
     const levels = limit.symmetric ? [limit.value, -limit.value] : [limit.value]
     layers.push({
-      data: { values: levels.map((y) => ({ y: round(y), text })) },
+      data: { values: levels.map((y) => ({ y: round(y) })) },
       mark: { type: 'rule', color: LIMIT_COLOR, strokeDash: [6, 3], strokeWidth: 1.2 },
       encoding: { y: { field: 'y', type: 'quantitative' } },
-    })
-    layers.push({
-      data: { values: [{ y: round(limit.value), text }] },
-      mark: { type: 'text', align: 'right', baseline: limit.sense === 'at least' ? 'top' : 'bottom', dy: limit.sense === 'at least' ? 3 : -3, fontSize: 9.5, color: LIMIT_COLOR, font: FONT },
-      encoding: { y: { field: 'y', type: 'quantitative' }, x: { value: chart.width - 4 }, text: { field: 'text' } },
     })
   }
   let width = chart.width
@@ -202,6 +196,31 @@ export function failingSpans(xs: Float64Array, ys: Float64Array, sense: 'at leas
 
 function cross(x0: number, y0: number, x1: number, y1: number, level: number): number {
   return y1 === y0 ? x0 : x0 + ((level - y0) * (x1 - x0)) / (y1 - y0)
+}
+
+/**
+ * The y domain: the data's extent (the interior only for a series that grows
+ * without bound at a limit angle), the limit lines, and room above and below for
+ * the extremes' labels.
+ */
+function roomyDomain(chart: ChartOutcome, series: readonly ChartSeries[]): [number, number] {
+  let lo = Number.POSITIVE_INFINITY
+  let hi = Number.NEGATIVE_INFINITY
+  for (const s of series) {
+    const n = s.values.length
+    const cut = chart.unbounded.includes(s.name) ? Math.ceil(0.04 * n) : 0
+    for (let i = cut; i < n - cut; i++) {
+      const v = s.values[i]!
+      if (Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+    }
+  }
+  const limit = chart.limit && series.some((s) => s.name === chart.limit!.series) ? chart.limit : null
+  if (limit) {
+    for (const v of limit.symmetric ? [limit.value, -limit.value] : [limit.value]) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+  }
+  if (!(hi > lo)) return [lo - 1, hi + 1]
+  const room = 0.16 * (hi - lo)
+  return [lo - room, hi + room]
 }
 
 function extent(values: Float64Array): [number, number] {

@@ -46,7 +46,7 @@ export async function renderCharts(model: NoteModel, cache?: ChartCache | null):
       let done = finished.get(key)
       if (done) cached++
       else {
-        const spec = chartSpec(chart, model.meta.digits)
+        const spec = chartSpec(chart)
         const text = specText(spec)
         const rendered = await chartSvg(spec, `lw-${name}`, cache, text)
         if (rendered.cached) cached++

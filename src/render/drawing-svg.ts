@@ -103,21 +103,34 @@ export function drawingSvg(drawing: DrawingOutcome, id: string): string {
     parts.push(text(c[0] + (r + 12) * Math.cos(mid), c[1] - (r + 12) * Math.sin(mid), drawing.swing.text, 'middle', 'lw-dim-text'), '</g>')
   }
 
-  // 6. Crank-angle convention at the crank axis: θ from +x in the sense of rotation.
+  // 6. Crank-angle convention at the crank axis: θ from its reference line (+x, or the crank at
+  //    outer dead centre) in the sense the block measures it; the rotation's own arrow apart.
   const solid = drawing.poses.find((p) => !p.ghost)
   if (solid?.points.A) {
     const r = Math.max(16, 0.42 * g.crank * frame.scale)
     const theta = Math.atan2(solid.points.A[1], solid.points.A[0])
-    const start = 0
-    const sweep = g.rotation === 1 ? ((theta % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI) : -((((-theta) % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI))
-    parts.push(line(o[0], o[1], o[0] + r * 1.35, o[1], INK, 0.7, '3 2', 'lw-angle-reference'))
-    const end = start + sweep
+    const { reference, sense } = drawing.angles
+    const turn = 2 * Math.PI
+    const measured = (((sense * (theta - reference)) % turn) + turn) % turn
+    const start = reference
+    const end = reference + sense * measured
+    parts.push(line(o[0], o[1], o[0] + r * 1.35 * Math.cos(reference), o[1] - r * 1.35 * Math.sin(reference), INK, 0.7, '3 2', 'lw-angle-reference'))
     parts.push(arc(o, r, Math.min(start, end), Math.max(start, end), INK, 0.8, null, 'lw-angle-arc'))
     const tip: [number, number] = [o[0] + r * Math.cos(end), o[1] - r * Math.sin(end)]
-    parts.push(arrow(tip, g.rotation === 1 ? Math.atan2(-Math.cos(end), -Math.sin(end)) : Math.atan2(Math.cos(end), Math.sin(end))))
-    // A small angle leaves no room inside the arc: the label then goes just below the reference line.
-    const mid = Math.abs(sweep) < 0.6 ? -0.5 * g.rotation : (start + end) / 2
-    parts.push(text(o[0] + (r + 12) * Math.cos(mid), o[1] - (r + 12) * Math.sin(mid) + 4, `θ (${g.rotation === 1 ? 'ccw' : 'cw'})`, 'middle', 'lw-angle-label'))
+    parts.push(arrow(tip, sense === 1 ? Math.atan2(-Math.cos(end), -Math.sin(end)) : Math.atan2(Math.cos(end), Math.sin(end))))
+    // A small angle leaves no room inside the arc: the label then goes just outside the reference line.
+    const mid = measured < 0.6 ? reference - 0.5 * sense : (start + end) / 2
+    parts.push(text(o[0] + (r + 12) * Math.cos(mid), o[1] - (r + 12) * Math.sin(mid) + 4, drawing.angles.fromDeadCentre ? 'θ from ODC' : 'θ', 'middle', 'lw-angle-label'))
+    // The sense of rotation: a short arrowed arc on the far side of the crank pin's circle.
+    const rr = g.crank * frame.scale + 10
+    const a0 = theta + Math.PI - 0.35
+    const a1 = theta + Math.PI + 0.35
+    parts.push(arc(o, rr, a0, a1, CRANK, 1, null, 'lw-rotation'))
+    const head = g.rotation === 1 ? a1 : a0
+    const headTip: [number, number] = [o[0] + rr * Math.cos(head), o[1] - rr * Math.sin(head)]
+    parts.push(arrow(headTip, g.rotation === 1 ? Math.atan2(-Math.cos(head), -Math.sin(head)) : Math.atan2(Math.cos(head), Math.sin(head))))
+    const labelAt = theta + Math.PI
+    parts.push(text(o[0] + (rr + 12) * Math.cos(labelAt), o[1] - (rr + 12) * Math.sin(labelAt) + 4, `ω ${g.rotation === 1 ? 'ccw' : 'cw'}`, 'middle', 'lw-rotation-label', CRANK))
   }
 
   // 7. Scale bar.

@@ -5,6 +5,7 @@
 import type { Element } from 'hast'
 import { h } from 'hastscript'
 import { CAUTION } from '../notes/caution.js'
+import { extremesValues } from '../notes/block-kinds/extremes.js'
 import { displayValue } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { Person } from '../notes/types.js'
@@ -69,7 +70,7 @@ export function summary(model: NoteModel, context: RenderContext): Element {
     const outcome = model.outcomes[block.index]
     if (!outcome) continue
     for (const name of outcome.summary) {
-      const result = [...outcome.results, ...outcome.inputs].find((r) => r.name === name)
+      const result = [...outcome.results, ...extremesValues(outcome.extremes), ...outcome.inputs].find((r) => r.name === name)
       if (!result) continue
       const shown = displayValue(result.value, meta.units, meta.digits)
       rows.push([h('a', { href: `#${blockAnchor(block)}` }, `#${block.id}`), result.label, h('span.lw-number', shown.number), shown.label])

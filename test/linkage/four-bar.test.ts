@@ -14,6 +14,8 @@ import {
   analyseFourBar,
   fourBar,
   fourBarRange,
+  fourBarState,
+  wrapTurn,
   grashof,
   solveFourBar,
   type FourBarLinkage,
@@ -40,8 +42,8 @@ describe('grashof() (FB-1)', () => {
     [40, 100, 120, 80, 'double-crank', 'Grashof double-crank (drag link)'],
     [100, 80, 40, 120, 'double-rocker', 'Grashof double-rocker'],
     [100, 65, 115, 70, 'triple-rocker', 'non-Grashof triple-rocker'],
-    [60, 40, 100, 80, 'change-point', 'change-point linkage (s + l = p + q)'],
-    [100, 50, 100, 50, 'change-point', 'change-point linkage (s + l = p + q)'],
+    [60, 40, 100, 80, 'change-point', 'change-point linkage, s + l = p + q'],
+    [100, 50, 100, 50, 'change-point', 'change-point linkage, parallelogram'],
   ]
   for (const [d, a, b, c, name, label] of cases) {
     it(`should class d=${d} a=${a} b=${b} c=${c} as ${name}`, () => {
@@ -230,8 +232,101 @@ describe('limit positions and dead points', () => {
       fourBar({ ground: 100 * mm, input: 40 * mm, coupler: 120 * mm, output: 80 * mm, driver: 'output' }),
       { speed: 1 },
     )
-    expect(result.changePoints).toHaveLength(2)
-    expect(result.warnings.map((w) => w.code)).toEqual(['dead-centres-need-momentum'])
+    expect(result.deadPoints).toHaveLength(2)
+    expect(result.needsStoredEnergy).toBe(true)
+    expect(result.warnings.map((w) => w.code)).toEqual(['dead-points-need-stored-energy'])
+    // The transmission angle is measured against the input it drives: nil where input and coupler fall in line.
+    expect(result.transmissionMin.value).toBeLessThan(1e-9)
+  })
+})
+
+describe('change-point linkages followed through their change points', () => {
+  // Facts of elementary geometry (derived): a parallelogram's opposite sides stay parallel,
+  // so its output copies the input; the crossed assembly (antiparallelogram) turns its
+  // output the other way; a deltoid with input = coupler rocks its output between the two
+  // equilateral poses |O2B| = a + b = c = d, i.e. θ4 = 120° and 240°.
+  const state = new Float64Array(FOUR_BAR_STATE)
+  const crosses = (linkage: FourBarLinkage, theta: number): boolean => {
+    const a: [number, number] = [linkage.input * Math.cos(theta), linkage.input * Math.sin(theta)]
+    const b: [number, number] = [a[0] + linkage.coupler * Math.cos(state[THETA3]!), a[1] + linkage.coupler * Math.sin(state[THETA3]!)]
+    const side = (p: number[], q: number[], r: number[]) => (q[0]! - p[0]!) * (r[1]! - p[1]!) - (q[1]! - p[1]!) * (r[0]! - p[0]!)
+    const cross = (p1: number[], p2: number[], p3: number[], p4: number[]) =>
+      side(p3, p4, p1) * side(p3, p4, p2) < -1e-12 && side(p1, p2, p3) * side(p1, p2, p4) < -1e-12
+    return cross([0, 0], a, b, [linkage.groundX, 0]) || cross(a, b, [linkage.groundX, 0], [0, 0])
+  }
+
+  it('should keep the open parallelogram a parallelogram past 180°: output angle = input angle, ω4 = ω2', () => {
+    const linkage = fourBar({ ground: 100 * mm, input: 50 * mm, coupler: 100 * mm, output: 50 * mm })
+    for (let t = 1; t < 360; t += 7) {
+      expect(fourBarState(linkage, rad(t), state)).toBe(true)
+      expectClose(wrapTurn(state[THETA4]!), rad(t), { abs: 1e-9 })
+      expectClose(state[H4]!, 1, { abs: 1e-9 })
+      expect(crosses(linkage, rad(t))).toBe(false)
+    }
+    const result = analyseFourBar(linkage, { speed: 10 })
+    expect(result.outputTurnsFully).toBe(true)
+    expect(result.outputSwing).toBeNull()
+    expect(result.timeRatio).toBeNull()
+    expectClose(result.extremes.outputAngularVelocity.max.value, 10, { rel: 1e-9 })
+    expectClose(result.extremes.outputAngularVelocity.min.value, 10, { rel: 1e-9 })
+    expect(result.changePoints.map((t) => Math.round(deg(t)))).toEqual([0, 180])
+    expect(result.warnings.map((w) => w.code)).toContain('change-point-linkage')
+    expect(result.warnings.find((w) => w.code === 'change-point-linkage')!.message).toContain('follows the open assembly through them')
+  })
+
+  it('should keep the crossed assembly crossed: the antiparallelogram turns its output the other way', () => {
+    const linkage = fourBar({ ground: 100 * mm, input: 50 * mm, coupler: 100 * mm, output: 50 * mm, circuit: 'crossed' })
+    let net = 0
+    let previous = Number.NaN
+    for (let t = 1; t < 360; t += 7) {
+      fourBarState(linkage, rad(t), state)
+      expect(crosses(linkage, rad(t))).toBe(true)
+      expect(state[H4]!).toBeLessThan(0)
+      if (Number.isFinite(previous)) net += Math.atan2(Math.sin(state[THETA4]! - previous), Math.cos(state[THETA4]! - previous))
+      previous = state[THETA4]!
+    }
+    expect(analyseFourBar(linkage, { speed: 10 }).outputTurnsFully).toBe(true)
+    expect(net).toBeLessThan(-1.9 * Math.PI)
+  })
+
+  it('should move smoothly through a change point: the state there is the limit of both sides', () => {
+    const linkage = fourBar({ ground: 100 * mm, input: 50 * mm, coupler: 100 * mm, output: 50 * mm, circuit: 'crossed' })
+    for (const cp of [0, Math.PI]) {
+      fourBarState(linkage, cp, state)
+      const at = state[H4]!
+      fourBarState(linkage, cp - 1e-4, state)
+      const before = state[H4]!
+      fourBarState(linkage, cp + 1e-4, state)
+      const after = state[H4]!
+      expectClose(at, (before + after) / 2, { rel: 1e-6 })
+      expectClose(before, after, { rel: 1e-3 })
+    }
+  })
+
+  it('should rock a deltoid with input = coupler between 120° and 240°, time ratio 2', () => {
+    const linkage = fourBar({ ground: 100 * mm, input: 50 * mm, coupler: 50 * mm, output: 100 * mm })
+    const result = analyseFourBar(linkage, { speed: 1 })
+    expect(result.grashof.form).toBe('deltoid')
+    expect(result.outputTurnsFully).toBe(false)
+    expectClose(deg(result.extremes.outputAngle.min.value), 120, { abs: 1e-6 })
+    expectClose(deg(result.extremes.outputAngle.max.value), 240, { abs: 1e-6 })
+    expectClose(deg(result.outputSwing!), 120, { abs: 1e-6 })
+    // 240° of input travel one way, 120° back (computed from the equilateral poses at θ2 = 60° and 300°).
+    expectClose(result.timeRatio!, 2, { rel: 1e-6 })
+  })
+
+  it('should need two input turns for a deltoid whose input pin passes over the output pivot', () => {
+    // Ground = input (short), coupler = output (long): at θ2 = 0 the input pin A lies on O4.
+    // Continuous motion turns the output once for two turns of the input (the Galloway
+    // linkage; the name and the 2:1 from memory, the motion computed here).
+    const linkage = fourBar({ ground: 50 * mm, input: 50 * mm, coupler: 100 * mm, output: 100 * mm })
+    const result = analyseFourBar(linkage, { speed: 1 })
+    expect(result.periodTurns).toBe(2)
+    expect(result.outputTurnsFully).toBe(true)
+    expectClose(deg(result.range.end - result.range.start), 720, { abs: 1e-9 })
+    // Half way round the first turn the output has made a quarter turn: θ4 = θ2/2 at θ2 = 180° for a = d.
+    fourBarState(linkage, Math.PI, state)
+    expectClose(deg(wrapTurn(state[THETA4]!)), 120, { abs: 1e-6 })
   })
 })
 

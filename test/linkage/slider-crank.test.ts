@@ -111,12 +111,25 @@ describe('piston velocity and acceleration (SC-3)', () => {
 
   it('should find the peak speed before 90° at 1.619 × the mean speed', () => {
     const result = analyseSliderCrank(sliderCrank({ crank: r, rod: l }), { speed: omega })
-    expectClose(deg(result.peakVelocity.theta), 76.7209772, { abs: 1e-6 })
-    expectPrinted(Math.abs(result.peakVelocity.value), '16.1930676')
+    const v = result.extremes.velocity
+    // Counter-clockwise from the outer dead centre the slider first moves towards the crank: v < 0.
+    expectClose(deg(v.min.theta), 76.7209772, { abs: 1e-6 })
+    expectPrinted(v.min.value, '-16.1930676')
+    // The largest magnitude is never negative, at the same angle.
+    expectPrinted(v.absMax.value, '16.1930676')
+    expectClose(deg(v.absMax.theta), 76.7209772, { abs: 1e-6 })
+    // In-line: the return half mirrors it.
+    expectPrinted(v.max.value, '16.1930676')
+    expectClose(deg(v.max.theta), 360 - 76.7209772, { abs: 1e-6 })
     expectClose(result.meanSpeed!, 10, { rel: 1e-12 })
-    expectPrinted(Math.abs(result.peakVelocity.value) / result.meanSpeed!, '1.61930676')
-    expect(result.peakAcceleration.theta).toBe(0)
-    expectPrinted(result.peakAcceleration.value, '-6168.50275')
+    expectPrinted(v.absMax.value / result.meanSpeed!, '1.61930676')
+    const a = result.extremes.acceleration
+    expect(a.min.theta).toBe(0)
+    expectPrinted(a.min.value, '-6168.50275')
+    expectPrinted(a.absMax.value, '6168.50275')
+    // The greatest (towards +x) is at the inner dead centre, rω²(1 − λ) (SC-3), exactly 180°.
+    expectPrinted(a.max.value, '3701.10165')
+    expect(deg(a.max.theta)).toBeCloseTo(180, 9)
   })
 
   it('should add the tangential term x′α for a crank that speeds up', () => {
@@ -137,13 +150,13 @@ describe('piston velocity and acceleration (SC-3)', () => {
 })
 
 describe('crank angle of the greatest piston speed (textbook worked example)', () => {
-  // Example 15.3 of the book uploaded as number 213 to FOSSEE's Scilab Textbook
-  // Companion (scilab script CH15/EX15.3, read): crank 300 mm, rod 1 m, 200 rpm;
-  // the book's method sets d/dθ of the two-term velocity ωr(sinθ + sin2θ/2n) to
-  // zero, 2cos²θ + n cosθ − 1 = 0, and prints θ rounded to whole degrees. That the
-  // book is Khurmi & Gupta, Theory of Machines, is from memory. Its answers are
-  // computed here with its own method; the core's exact answers must sit within
-  // that method's error (a few tenths of a percent at n = 3.3).
+  // R. S. Khurmi, J. K. Gupta, Theory of Machines (S. Chand; edition not confirmed),
+  // Example 15.3 — the book and example number from memory; the inputs and the
+  // book's method were read in a published re-working of the example: crank
+  // 300 mm, rod 1 m, 200 rpm; d/dθ of the two-term velocity ωr(sinθ + sin2θ/2n)
+  // set to zero, 2cos²θ + n cosθ − 1 = 0, θ printed to whole degrees. Its answers
+  // are computed here with its own method (computed, not printed values); the
+  // core's exact answers must sit within that method's error.
   it('should agree with the two-term answer within its approximation error', () => {
     const n = 1 / 0.3
     const omega = (200 * 2 * Math.PI) / 60
@@ -153,8 +166,8 @@ describe('crank angle of the greatest piston speed (textbook worked example)', (
     expect(bookTheta).toBe(75)
     expectPrinted(bookSpeed, '6.54')
     const exact = analyseSliderCrank(sliderCrank({ crank: 0.3, rod: 1 }), { speed: omega })
-    expectClose(deg(exact.peakVelocity.theta), 75, { abs: 0.5 })
-    expectClose(Math.abs(exact.peakVelocity.value), bookSpeed, { rel: 0.005 })
+    expectClose(deg(exact.extremes.velocity.absMax.theta), 75, { abs: 0.5 })
+    expectClose(exact.extremes.velocity.absMax.value, bookSpeed, { rel: 0.005 })
   })
 })
 
@@ -254,11 +267,25 @@ describe('a crank that cannot turn fully', () => {
 })
 
 describe('slider-driven linkage', () => {
-  it('should report the dead centres as change points that need stored momentum', () => {
-    const result = analyseSliderCrank(sliderCrank({ crank: 40 * mm, rod: 150 * mm, driver: 'slider' }), { speed: 50 })
-    expect(result.changePoints.map((p) => deg(p.theta))).toEqual([0, 180])
-    expect(result.warnings.map((w) => w.code)).toEqual(['dead-centres-need-momentum'])
-    expect(result.warnings[0]!.message).toMatch(/flywheel or other stored momentum must carry the crank/)
+  // A fact of the trade: a slider (piston) pushing along the rod cannot turn the
+  // crank when crank and rod are in line; the engine's flywheel carries it through
+  // (common practice, no source).
+  const result = analyseSliderCrank(sliderCrank({ crank: 40 * mm, rod: 150 * mm, driver: 'slider' }), { speed: 50 })
+
+  it('should report the dead centres as dead points that need stored energy', () => {
+    expect(result.deadPoints.map((p) => deg(p.theta))).toEqual([0, 180])
+    expect(result.needsStoredEnergy).toBe(true)
+    expect(result.warnings.map((w) => w.code)).toEqual(['dead-points-need-stored-energy'])
+    expect(result.warnings[0]!.message).toMatch(/flywheel or other stored energy must carry the crank/)
+  })
+
+  it('should measure the transmission angle against the crank it drives: nil at the dead points', () => {
+    expect(result.transmissionMin.value).toBeLessThan(1e-12)
+    expect([0, 180]).toContain(Math.round(deg(result.transmissionMin.theta)))
+    // At θ = 90° the rod leans asin(λ) from the path and the crank stands square to it: μ = 90° − asin(a/b).
+    const crankDriven = analyseSliderCrank(sliderCrank({ crank: 40 * mm, rod: 150 * mm }), { speed: 50 })
+    expect(crankDriven.needsStoredEnergy).toBe(false)
+    expectClose(crankDriven.transmissionMin.value, Math.PI / 2 - Math.asin(40 / 150), { rel: 1e-12 })
   })
 })
 
@@ -309,7 +336,23 @@ describe('eccentric drive', () => {
   it('should refuse a sheave that does not enclose the shaft with the wall asked for', () => {
     expect(() =>
       eccentric({ eccentricity: 20 * mm, strapLength: 200 * mm, sheaveDiameter: 90 * mm, shaftDiameter: 50 * mm, minimumWall: 5 * mm }),
-    ).toThrowError(/thinnest wall is 0 mm; a sheave of at least 100 mm is needed/)
+    ).toThrowError(/thinnest wall is 0 mm, below the 5 mm minimum; a sheave of at least 100 mm is needed/)
+  })
+
+  it('should take a wall exactly at the minimum as meeting it, and say a consistent shortfall just below it', () => {
+    // 154 mm sheave, 40 mm eccentricity, 50 mm shaft: wall = 77 − 40 − 25 = 12 mm, the minimum exactly.
+    // 0.154 is not exact in binary: the wall comes out within 1e-17 m of 12 mm either way.
+    const drive = eccentric({ eccentricity: 0.04, strapLength: 0.16, sheaveDiameter: 0.154, shaftDiameter: 0.05, minimumWall: 0.012 })
+    expectClose(drive.wall, 0.012, { abs: 1e-15 })
+    // 1 µm short: refused, and the needed sheave prints larger than the one given.
+    let message = ''
+    try {
+      eccentric({ eccentricity: 0.04, strapLength: 0.16, sheaveDiameter: 0.153998, shaftDiameter: 0.05, minimumWall: 0.012 })
+    } catch (error) {
+      message = (error as Error).message
+    }
+    expect(message).toContain('The sheave (153.998 mm diameter)')
+    expect(message).toContain('the thinnest wall is 11.999 mm, below the 12 mm minimum; a sheave of at least 154 mm is needed')
   })
 })
 

@@ -28,7 +28,9 @@ describe('units at the boundary', () => {
     const core = analyseSliderCrank(sliderCrank({ crank: read_('crank'), rod: read_('rod'), offset: read_('offset') }), { speed: read_('speed') })
     expect(si(outcome.results, 'stroke')).toBe(core.stroke)
     expect(si(outcome.results, 'time_ratio')).toBe(core.timeRatio)
-    expect(si(outcome.results, 'peak_acceleration')).toBe(core.peakAcceleration.value)
+    const extremes = outcome.extremes.flatMap((r) => [r.min, r.max, r.absMax])
+    expect(si(extremes, 'acceleration_min')).toBe(core.extremes.acceleration.min.value)
+    expect(si(extremes, 'acceleration_abs_max')).toBe(core.extremes.acceleration.absMax.value)
   })
 })
 
@@ -93,7 +95,8 @@ describe('four-bar block', () => {
     const results = model.outcomes[0]!.results
     const core = analyseFourBar(fourBar({ ground: 0.1, input: 0.04, coupler: 0.12, output: 0.08 }), { speed: 10 })
     expect(results.find((r) => r.name === 'grashof_class')!.value).toEqual({ type: 'text', text: 'crank-rocker' })
-    expect(si(results, 'transmission_angle_min')).toBe(core.transmissionMin.value)
+    const extremes = model.outcomes[0]!.extremes.flatMap((r) => [r.min, r.max, r.absMax])
+    expect(si(extremes, 'transmission_angle_min')).toBe(core.transmissionMin.value)
     expect(si(results, 'output_swing')).toBe(core.outputSwing)
     expect(si(results, 'time_ratio')).toBe(core.timeRatio)
     expect(model.outcomes[0]!.warnings.some((w) => w.startsWith('The transmission angle falls to 26.38'))).toBe(true)
@@ -140,9 +143,46 @@ describe('tables', () => {
     expect(table.columns.map((c) => c.label)).toEqual(['crank angle', 'slider position', 'slider velocity'])
     expect(table.rows.map((r) => r.marker)).toEqual([null, 'outer dead centre', null, null, 'inner dead centre', null])
     // At the dead centres the slider stands still.
-    for (const row of table.rows.filter((r) => r.marker)) expect(row.cells[2]).toBe('0')
+    for (const row of table.rows.filter((r) => r.marker)) expect(Number(row.cells[2])).toBe(0)
     const core = analyseSliderCrank(sliderCrank({ crank: 0.04, rod: 0.16, offset: 0.02 }), { speed: 2 * Math.PI })
-    expect(table.rows[1]!.cells[0]).toBe(((core.outerDeadCentre!.theta * 180) / Math.PI).toPrecision(5))
+    // One count of decimals per column: two for angles up to 270°, at five significant digits.
+    expect(table.rows[1]!.cells[0]).toBe(((core.outerDeadCentre!.theta * 180) / Math.PI).toFixed(2))
+    expect(table.columns.map((c) => c.decimals)).toEqual([2, 2, 5])
+    for (const row of table.rows) expect(row.cells[2]!.split('.')[1]).toHaveLength(5)
+  })
+
+  it('should give one row, labelled, where a dead centre falls on a step', () => {
+    const { model } = read('```slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\nspeed: 60 rpm\n```\n\n```table\nof: drive\nquantities: position\nevery: 90 deg\n```\n')
+    const rows = model.outcomes[1]!.table!.rows
+    expect(rows.map((r) => [r.cells[0], r.marker])).toEqual([
+      ['0.00', 'outer dead centre'],
+      ['90.00', null],
+      ['180.00', 'inner dead centre'],
+      ['270.00', null],
+    ])
+  })
+
+  it('should list the rows of a clockwise crank in time order', () => {
+    const { model } = read('```slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\nspeed: 60 rpm\nrotation: cw\n```\n\n```table\nof: drive\nquantities: position\nevery: 90 deg\n```\n')
+    expect(model.outcomes[1]!.table!.rows.map((r) => r.cells[0])).toEqual(['0.00', '270.00', '180.00', '90.00'])
+  })
+
+  it('should measure angles from the outer dead centre in the sense of rotation when asked, everywhere alike', () => {
+    // Offset 20 mm, clockwise: the outer dead centre at asin(e/(a + b)) from +x (OSC-1's formula).
+    const { model } = read(
+      '```slider-crank #drive\ncrank: 40 mm\nrod: 160 mm\noffset: 20 mm\nspeed: 60 rpm\nrotation: cw\nangles_from: outer-dead-centre\n```\n\n```table\nof: drive\nquantities: position\nevery: 90 deg\n```\n',
+    )
+    const outcome = model.outcomes[0]!
+    const core = analyseSliderCrank(sliderCrank({ crank: 0.04, rod: 0.16, offset: 0.02, rotation: -1 }), { speed: 2 * Math.PI })
+    expect(si(outcome.results, 'outer_dead_centre_angle')).toBe(0)
+    // The inner dead centre comes after the instroke's crank travel.
+    expectClose(si(outcome.results, 'inner_dead_centre_angle'), core.instrokeAngle!, { rel: 1e-12 })
+    const rows = model.outcomes[1]!.table!.rows
+    expect(rows[0]!.cells[0]).toBe('0.00')
+    expect(rows[0]!.marker).toBe('outer dead centre')
+    const angles = rows.map((r) => Number(r.cells[0]))
+    for (let i = 1; i < angles.length; i++) expect(angles[i]!).toBeGreaterThan(angles[i - 1]!)
+    expect(model.outcomes[1]!.table!.angles).toContain('from the outer dead centre in the sense of rotation (clockwise)')
   })
 })
 
@@ -187,9 +227,24 @@ describe('tables of a crank that only rocks', () => {
     const { model } = read('```slider-crank #rocker\ncrank: 50 mm\nrod: 70 mm\noffset: 30 mm\nspeed: 10 rpm\n```\n\n```table\nof: rocker\nquantities: position\nevery: 60 deg\n```\n')
     const rows = model.outcomes[1]!.table!.rows
     // The range runs from −53.13° to 233.13°.
-    expect(rows.filter((r) => !r.marker).map((r) => r.cells[0])).toEqual(['0', '60.000', '120.00', '180.00'])
+    expect(rows.filter((r) => !r.marker).map((r) => r.cells[0])).toEqual(['0.00', '60.00', '120.00', '180.00'])
     expect(rows[0]!.marker).toBe('crank limit')
     expect(rows[rows.length - 1]!.marker).toBe('crank limit')
+  })
+
+  it('should say a velocity is unbounded at the limit angles, not print a huge number', () => {
+    const { model } = read('```slider-crank #rocker\ncrank: 50 mm\nrod: 70 mm\noffset: 30 mm\nspeed: 10 rpm\n```\n\n```table\nof: rocker\nquantities: position, velocity\nevery: 60 deg\n```\n')
+    const outcome = model.outcomes[0]!
+    const velocity = outcome.extremes.find((r) => r.quantity.name === 'velocity')!
+    // At a limit the rod stands square to the path: dx/dθ = −a sinθ − u a cosθ/√(b² − u²) has √0 below (derived).
+    expect(velocity.absMax.value.type).toBe('none')
+    expect(velocity.absMax.value.type === 'none' && velocity.absMax.value.reason).toMatch(/^unbounded at the crank limit angle/)
+    const position = outcome.extremes.find((r) => r.quantity.name === 'position')!
+    expect(position.max.value.type).toBe('quantity')
+    const rows = model.outcomes[1]!.table!.rows
+    expect(rows[0]!.cells[2]).toBe('unbounded')
+    expect(rows[1]!.cells[2]).not.toBe('unbounded')
+    for (const cell of rows.slice(1, -1).map((r) => r.cells[2]!)) expect(Math.abs(Number(cell.replace('−', '-')))).toBeLessThan(1)
   })
 })
 
@@ -201,3 +256,4 @@ describe('results.json', () => {
     expect(doc.blocks[0]!.inputs.fill).toMatchObject({ kind: 'other', si: 0.002, siUnit: 'm^3' })
   })
 })
+

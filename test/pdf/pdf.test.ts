@@ -91,7 +91,7 @@ describe('PDF packages of the demo notes', () => {
     }
     expect(all.match(/✖ FAIL|FAIL/g)!.length).toBeGreaterThanOrEqual(results.checks.filter((c) => c.status === 'FAIL').length)
     const drive = results.blocks.find((b) => b.id === 'pusher')!
-    for (const name of ['stroke', 'time_ratio', 'transmission_angle_min', 'peak_velocity', 'peak_acceleration']) {
+    for (const name of ['stroke', 'time_ratio', 'transmission_angle_min', 'velocity_abs_max', 'acceleration_abs_max']) {
       expect(all).toContain(drive.results[name]!.display)
     }
     expect(all).toContain('for checking by a qualified engineer')

@@ -9,6 +9,7 @@ import { visit } from 'unist-util-visit'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { SliderCrankSweep, analyseSliderCrank, sliderCrank, fourBar, analyseFourBar } from '../../src/linkage/index.js'
 import type { BlockOutcome } from '../../src/notes/block-kinds/kind.js'
+import { formatNumber } from '../../src/notes/display.js'
 import { chartSpec, failingSpans } from '../../src/render/chart-spec.js'
 import { chartSvg, scopeIds } from '../../src/render/chart-svg.js'
 import { drawingSvg } from '../../src/render/drawing-svg.js'
@@ -67,7 +68,7 @@ describe('charts', () => {
   it('should plot exactly the core’s sweep, in the display units', () => {
     const chart = outcomes[1]!.chart!
     const sweep = new SliderCrankSweep(sliderCrank(slider), 361).update({ start: 0, end: 2 * Math.PI }, { speed: rpm(120) })
-    const lines = layers(chartSpec(chart, 5)).filter((l) => markType(l) === 'line')
+    const lines = layers(chartSpec(chart)).filter((l) => markType(l) === 'line')
     expect(lines).toHaveLength(2)
     const velocity = lines[0]!.data!.values
     const acceleration = lines[1]!.data!.values
@@ -81,25 +82,29 @@ describe('charts', () => {
 
   it('should put a dead-centre rule at each computed crank angle', () => {
     const core = analyseSliderCrank(sliderCrank(slider), { speed: rpm(120) })
-    const rules = layers(chartSpec(outcomes[1]!.chart!, 5)).filter((l) => markType(l) === 'rule')
+    const rules = layers(chartSpec(outcomes[1]!.chart!)).filter((l) => markType(l) === 'rule')
     const xs = rules.flatMap((l) => l.data!.values.map((v) => v.x as number))
     expect(xs).toHaveLength(4)
     expectClose(xs.slice(0, 2), [deg(core.outerDeadCentre!.theta), deg(core.innerDeadCentre!.theta)], { rel: 1e-8 })
   })
 
-  it('should label the analysis’s exact peaks', () => {
+  it('should mark the analysis’s exact greatest and least values, not a grid sample', () => {
     const core = analyseSliderCrank(sliderCrank(slider), { speed: rpm(120) })
-    const texts = layers(chartSpec(outcomes[1]!.chart!, 5))
+    const points = layers(chartSpec(outcomes[1]!.chart!))
       .filter((l) => markType(l) === 'point')
       .flatMap((l) => l.data!.values)
-    expectClose(texts[0]!.x as number, deg(core.peakVelocity.theta), { rel: 1e-8 })
-    expectClose(texts[0]!.y as number, core.peakVelocity.value, { rel: 1e-8 })
-    expectClose(texts[1]!.y as number, core.peakAcceleration.value, { rel: 1e-8 })
+    const v = core.extremes.velocity
+    const a = core.extremes.acceleration
+    expectClose(points.map((p) => p.x as number), [deg(v.max.theta), deg(v.min.theta), deg(a.max.theta), deg(a.min.theta)], { rel: 1e-8 })
+    expectClose(points.map((p) => p.y as number), [v.max.value, v.min.value, a.max.value, a.min.value], { rel: 1e-8 })
+    // The label says the same figure the results table prints.
+    const texts = layers(chartSpec(outcomes[1]!.chart!)).filter((l) => markType(l) === 'text').flatMap((l) => l.data!.values.map((x) => x.text as string))
+    expect(texts).toContain(`least ${formatNumber(v.min.value, 5)} m/s at ${formatNumber(deg(v.min.theta), 5)}°`)
   })
 
   it('should draw the limit at its value and shade the stretch that breaks it', () => {
     const chart = outcomes[2]!.chart!
-    const spec = layers(chartSpec(chart, 5))
+    const spec = layers(chartSpec(chart))
     const limit = spec.find((l) => markType(l) === 'rule' && (l.mark as { color?: string }).color === '#a11d21')!
     expect(limit.data!.values[0]!.y).toBe(70)
     const shaded = spec.find((l) => markType(l) === 'rect')!.data!.values
@@ -131,7 +136,7 @@ describe('charts', () => {
   })
 
   it('should render to SVG headless, the same text each time, ids scoped per chart, cached by content', async () => {
-    const spec = chartSpec(outcomes[3]!.chart!, 5)
+    const spec = chartSpec(outcomes[3]!.chart!)
     const first = await chartSvg(spec, 'lw-phase')
     const again = await chartSvg(spec, 'lw-phase')
     expect(first.svg.startsWith('<svg')).toBe(true)

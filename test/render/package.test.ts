@@ -63,7 +63,7 @@ describe('package sections', () => {
     expect(block).toContain(formatNumber(core.stroke * 1000, 5))
     expect(block).toContain(formatNumber(core.timeRatio!, 5))
     expect(block).toContain(formatNumber((core.transmissionMin.value * 180) / Math.PI, 5))
-    expect(block).toContain(formatNumber(core.peakAcceleration.value, 5))
+    expect(block).toContain(formatNumber(core.extremes.acceleration.min.value, 5))
   })
 
   it('should list every check in the summary, the gate first and the informative ones apart, in words', () => {

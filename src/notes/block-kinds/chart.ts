@@ -1,19 +1,21 @@
 /**
  * `chart` blocks: swept quantities of a linkage block against crank angle, time
  * or another swept quantity (velocity against position, the coupler-point path),
- * with the dead centres, the peaks and a limit marked. The values are the core's
- * own sweep, converted to the note's display units; the render layer draws them.
+ * with the dead centres, the exact extremes and a limit marked. The values are
+ * the core's own sweep, converted to the note's display units; the render layer
+ * draws them.
  *
  *     of: pusher
  *     series: velocity, acceleration
- *     at_most: 6 m/s^2        (a limit on the series of that kind)
+ *     at_most: ±6 m/s^2        (a limit on the series of that kind; ± for both signs)
  */
-import { displayUnit, unitLabel } from '../display.js'
+import { displayUnit, formatNumber, unitLabel } from '../display.js'
 import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity, type QuantityKind } from '../quantity.js'
 import { reportError } from '../report.js'
-import { intoRange, openSweepBlock, sweepDependencies } from './sweep-block.js'
+import { toCore, toDisplay } from './angles.js'
+import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type ChartOutcome, type ChartSeries, type SweepSource } from './kind.js'
 
 const KNOWN = ['of', 'series', 'x', 'layout', 'at_least', 'at_most', 'size', 'x_range', 'y_range', 'samples']
@@ -40,15 +42,22 @@ export const chartKind: BlockKind = {
     const xName = entries.get('x')?.value ?? 'crank angle'
     const isAngle = xName === 'crank angle' || xName === 'input angle' || xName === 'angle'
     if (!isAngle && xName !== 'time' && !known.includes(xName)) {
-      reportError(file, 'unknown-quantity', messages['unknown-quantity'](xName, `x axis of ${of.value}`, [source.angleLabel, 'time', ...known]), entries.get('x')!.valuePlace)
+      reportError(file, 'unknown-quantity', messages['unknown-quantity'](xName, `x axis of ${of.value}`, ['crank angle', 'time', ...known]), entries.get('x')!.valuePlace)
       return null
     }
     const samplesText = entries.get('samples')?.value
     const samples = samplesText === undefined ? 361 : Number(samplesText)
     if (!Number.isInteger(samples) || samples < 11 || samples > 5001) return fail('expected `samples:` as a whole number from 11 to 5001', entries.get('samples')?.valuePlace)
 
-    // The core's own sweep across the linkage's range.
-    const { angles, columns } = source.sample(samples)
+    // The core's own values at evenly spaced display angles across the range.
+    const span = source.displayEnd - source.displayStart
+    const displays = new Float64Array(samples)
+    for (let i = 0; i < samples; i++) displays[i] = i === samples - 1 ? source.displayEnd : source.displayStart + (span * i) / (samples - 1)
+    const columns = source.at(displays.map((d) => toCore(source, d)))
+    // Time along the cycle, continuous from its start (the wrapped column repeats 0 at the end of a turn).
+    const speed = source.speed
+    const forward = source.convention.sense === source.rotation
+    columns.time = displays.map((d) => (speed > 0 ? (forward ? d - source.displayStart : source.displayEnd - d) / speed : Number.NaN))
     const quantity = (name: string) => source.quantities.find((q) => q.name === name)!
     const convert = (values: Float64Array, kind: QuantityKind): Float64Array => {
       const unit = displayUnit(kind, meta.units)
@@ -56,9 +65,9 @@ export const chartKind: BlockKind = {
     }
     const angleUnit = displayUnit('angle', meta.units)
     const xAxis = isAngle
-      ? { name: 'angle', label: source.angleLabel, unit: unitLabel(angleUnit), kind: 'angle' as QuantityKind, values: convert(angles, 'angle') }
+      ? { name: 'angle', label: source.convention.label, unit: unitLabel(angleUnit), kind: 'angle' as QuantityKind, values: convert(displays, 'angle') }
       : (() => {
-          const q = xName === 'time' ? { name: 'time', label: 'time', kind: 'time' as QuantityKind } : quantity(xName)
+          const q = xName === 'time' ? { name: 'time', label: 'time from the start of the cycle', kind: 'time' as QuantityKind } : quantity(xName)
           return { name: q.name, label: q.label, unit: unitLabel(displayUnit(q.kind, meta.units)), kind: q.kind, values: convert(columns[q.name]!, q.kind) }
         })()
     const series: ChartSeries[] = names.map((name) => {
@@ -95,18 +104,8 @@ export const chartKind: BlockKind = {
     const yRange = readRange(entries.get('y_range')?.value, series[0]!.kind, context)
     if (xRange === undefined) return fail('expected `x_range:` as two quantities, e.g. `0 deg, 360 deg`', entries.get('x_range')?.valuePlace)
     if (yRange === undefined) return fail('expected `y_range:` as two quantities of the first series’ kind', entries.get('y_range')?.valuePlace)
-    const markers = isAngle || xName === 'time' ? chartMarkers(source, xName === 'time', columns, angles, meta.units) : []
-    // The analysis's exact extremes, placed on this chart's axes.
-    const peaks = names.flatMap((name) => {
-      const peak = source.peaks[name]
-      if (!peak) return []
-      const at = source.at(Float64Array.of(peak.theta))
-      const q = quantity(name)
-      const x = isAngle
-        ? fromSI(peak.theta, 'angle', angleUnit)
-        : fromSI(at[xAxis.name]![0]!, xAxis.kind, displayUnit(xAxis.kind, meta.units))
-      return [{ series: name, x, y: fromSI(peak.value, q.kind, displayUnit(q.kind, meta.units)), label: peak.label }]
-    })
+    const markers = isAngle || xName === 'time' ? chartMarkers(source, xName === 'time', speed, meta.units) : []
+    const peaks = isAngle || xName === 'time' || xAxis.kind === 'length' ? chartPeaks(source, names, isAngle, xAxis, speed, meta.units, meta.digits) : []
     const chart: ChartOutcome = {
       of: of.value,
       title: block.title,
@@ -116,6 +115,8 @@ export const chartKind: BlockKind = {
       markers,
       limit,
       peaks,
+      unbounded: names.filter((n) => source.unboundedAtEnds.has(n)),
+      angles: isAngle ? source.convention.words : null,
       width: size[0],
       height: size[1],
       xRange: xRange ?? (isAngle ? [xAxis.values[0]!, xAxis.values[xAxis.values.length - 1]!] : null),
@@ -125,6 +126,41 @@ export const chartKind: BlockKind = {
     }
     return outcome(block, 'Chart', { chart })
   },
+}
+
+/** The exact extremes of each series: greatest above, least below (the transmission angle: its least only). */
+function chartPeaks(
+  source: SweepSource,
+  names: readonly string[],
+  isAngle: boolean,
+  xAxis: ChartOutcome['x'],
+  speed: number,
+  units: Parameters<typeof displayUnit>[1],
+  digits: number,
+): ChartOutcome['peaks'] {
+  const angleUnit = displayUnit('angle', units)
+  const forward = source.convention.sense === source.rotation
+  const out: ChartOutcome['peaks'][number][] = []
+  for (const name of names) {
+    const extremes = source.extremes.get(name)
+    if (!extremes) continue
+    const q = source.quantities.find((s) => s.name === name)!
+    const unit = displayUnit(q.kind, units)
+    const which = name === 'transmission_angle' ? [['least', extremes.min, 'below'] as const] : ([['greatest', extremes.max, 'above'], ['least', extremes.min, 'below']] as const)
+    for (const [words, point, side] of which) {
+      if (!Number.isFinite(point.value)) continue
+      const display = toDisplay(source, point.theta)
+      let x: number
+      if (isAngle) x = fromSI(display, 'angle', angleUnit)
+      else if (xAxis.name === 'time') x = speed > 0 ? fromSI((forward ? display - source.displayStart : source.displayEnd - display) / speed, 'time', displayUnit('time', units)) : Number.NaN
+      else x = fromSI(source.at(Float64Array.of(point.theta))[xAxis.name]![0]!, xAxis.kind, displayUnit(xAxis.kind, units))
+      const y = fromSI(point.value, q.kind, unit)
+      const label = unitLabel(unit)
+      const angleText = `${formatNumber(fromSI(display, 'angle', angleUnit), digits)}${unitLabel(angleUnit) === '°' ? '°' : ` ${unitLabel(angleUnit)}`}`
+      out.push({ series: name, x, y, side, text: `${words} ${formatNumber(y, digits)}${label === '°' ? '°' : ` ${label}`} at ${angleText}` })
+    }
+  }
+  return out
 }
 
 function readSize(text: string | undefined): [number, number] | null {
@@ -150,22 +186,13 @@ function readRange(text: string | undefined, kind: QuantityKind, context: Parame
   return values[0]! < values[1]! ? [values[0]!, values[1]!] : undefined
 }
 
-function chartMarkers(
-  source: SweepSource,
-  byTime: boolean,
-  columns: Record<string, Float64Array>,
-  angles: Float64Array,
-  units: Parameters<typeof displayUnit>[1],
-): ChartOutcome['markers'] {
+function chartMarkers(source: SweepSource, byTime: boolean, speed: number, units: Parameters<typeof displayUnit>[1]): ChartOutcome['markers'] {
   const unit = displayUnit(byTime ? 'time' : 'angle', units)
+  const forward = source.convention.sense === source.rotation
   return source.markers.map((marker) => {
-    const theta = intoRange(marker.theta, source.start)
-    if (!byTime) return { label: marker.label, x: fromSI(theta, 'angle', unit) }
-    // Time at the marker: interpolate the swept time column.
-    const time = columns.time!
-    let i = 0
-    while (i < angles.length - 2 && angles[i + 1]! < theta) i++
-    const f = (theta - angles[i]!) / (angles[i + 1]! - angles[i]!)
-    return { label: marker.label, x: fromSI(time[i]! + f * (time[i + 1]! - time[i]!), 'time', unit) }
+    const display = toDisplay(source, marker.theta)
+    if (!byTime) return { label: marker.label, short: marker.short, x: fromSI(display, 'angle', unit) }
+    const travel = forward ? display - source.displayStart : source.displayEnd - display
+    return { label: marker.label, short: marker.short, x: fromSI(speed > 0 ? travel / speed : Number.NaN, 'time', unit) }
   })
 }

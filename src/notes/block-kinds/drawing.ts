@@ -13,6 +13,7 @@ import { messages } from '../messages.js'
 import { fromSI, readQuantity } from '../quantity.js'
 import { reportError } from '../report.js'
 import type { DisplayUnits } from '../types.js'
+import { toCore, toDisplay } from './angles.js'
 import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type Dimension, type DrawnPose, type DrawingOutcome, type Point2 } from './kind.js'
 
@@ -34,10 +35,15 @@ export const drawingKind: BlockKind = {
       const v = linkage.results.find((r) => r.name === name)?.value
       return v?.type === 'quantity' ? v.si : null
     }
+    const worst = source.extremes.get('transmission_angle')
+    const worstTheta =
+      geometry.kind === 'four-bar' && worst
+        ? (Math.PI - worst.max.value < worst.min.value ? worst.max.theta : worst.min.theta)
+        : (worst?.min.theta ?? null)
     // Positions asked for: dead centres (ghosted), named positions and angles (drawn solid).
     const show = (entries.get('show')?.value ?? 'dead centres, least transmission angle').split(',').map((s) => s.trim()).filter(Boolean)
     const poses: DrawnPose[] = []
-    const angleText = (theta: number) => showQuantity(theta, 'angle', meta.units, 4)
+    const angleText = (theta: number) => showQuantity(toDisplay(source, theta), 'angle', meta.units, meta.digits)
     const add = (label: string, theta: number, ghost: boolean): boolean => {
       const points = geometry.pose(theta)
       if (!points) return false
@@ -48,13 +54,13 @@ export const drawingKind: BlockKind = {
       if (item === 'dead centres' || item === 'toggles') {
         for (const marker of source.markers) add(marker.label, marker.theta, true)
       } else if (item === 'least transmission angle') {
-        const theta = result(geometry.kind === 'four-bar' ? 'transmission_angle_worst_at' : 'transmission_angle_min_at')
-        if (theta !== null) add(`least transmission angle, θ = ${angleText(theta)}`, theta, false)
+        if (worstTheta !== null) add(`least transmission angle, θ = ${angleText(worstTheta)}`, worstTheta, false)
       } else {
         const evaluated = evaluateText(item, context.scope, {}, context.blockIds)
         const reading = evaluated.ok ? readQuantity(evaluated.value, 'angle') : null
-        if (!reading?.ok) return fail(`\`show\` takes \`dead centres\`, \`least transmission angle\` or crank angles such as \`60 deg\`; \`${item}\` is none of these`, entries.get('show')!.valuePlace)
-        if (!add(`θ = ${angleText(reading.si)}`, reading.si, false)) return fail(`the linkage cannot assemble at ${item}`, entries.get('show')!.valuePlace)
+        if (!reading?.ok) return fail(`\`show\` takes \`dead centres\`, \`least transmission angle\` or crank angles such as \`60 deg\` (${source.convention.label}); \`${item}\` is none of these`, entries.get('show')!.valuePlace)
+        const theta = toCore(source, reading.si)
+        if (!add(`θ = ${angleText(theta)}`, theta, false)) return fail(`the linkage cannot assemble at ${item}`, entries.get('show')!.valuePlace)
       }
     }
     if (!poses.some((p) => !p.ghost)) add(`θ = ${angleText(source.start)}`, source.start, false)
@@ -78,7 +84,7 @@ export const drawingKind: BlockKind = {
       const h = offset?.type === 'quantity' ? offset.si : 0
       if (geometry.path?.type === 'line' && Math.abs(h) > 0) {
         // From the crank axis up (or down) to the path's centre line, dimensioned to the left.
-        dimensions.push({ from: [0, 0], to: [0, h], side: h > 0 ? 1 : -1, si: Math.abs(h), text: text('h', Math.abs(h), 'length'), role: 'offset' })
+        dimensions.push({ from: [0, 0], to: [0, h], side: h > 0 ? 1 : -1, si: Math.abs(h), text: text('e', Math.abs(h), 'length'), role: 'offset' })
       }
     } else {
       const toggles = source.markers.filter((m) => m.name === 'extended' || m.name === 'folded')
@@ -96,7 +102,7 @@ export const drawingKind: BlockKind = {
         dimensions.push({ from: [0, 0], to: o4, side: -1, si: ground.si, text: text('d', ground.si, 'length'), role: 'ground' })
       }
       if (source.quantities.some((q) => q.name === 'coupler_point_x')) {
-        const n = 361
+        const n = 361 * source.periodTurns
         const angles = new Float64Array(n)
         for (let i = 0; i < n; i++) angles[i] = source.start + ((source.end - source.start) * i) / (n - 1)
         const columns = source.at(angles)
@@ -116,10 +122,10 @@ export const drawingKind: BlockKind = {
     let frames: Readonly<Record<string, Point2>>[] | null = null
     if (animate === 'yes') {
       frames = []
-      const count = source.fullTurn ? FRAMES : FRAMES + 1
+      const count = source.fullTurn ? FRAMES * source.periodTurns : FRAMES + 1
       // A crank that only rocks goes there and back.
       for (let i = 0; i < count; i++) {
-        const f = i / FRAMES
+        const f = i / (FRAMES * (source.fullTurn ? source.periodTurns : 1))
         const theta = geometry.rotation === 1 || !source.fullTurn ? source.start + f * (source.end - source.start) : source.end - f * (source.end - source.start)
         const pose = geometry.pose(theta)
         if (pose) frames.push(pose)
@@ -145,6 +151,7 @@ export const drawingKind: BlockKind = {
       scaleBar: scaleBar(extent * 0.35, meta.units),
       width: Number(size[1]),
       height: Number(size[2]),
+      angles: { reference: source.convention.origin, sense: source.convention.sense, words: source.convention.words, fromDeadCentre: source.convention.reference === 'outer-dead-centre' },
       description: describe(of.value, geometry.kind, poses, dimensions, swing),
     }
     return outcome(block, 'Drawing', { drawing })

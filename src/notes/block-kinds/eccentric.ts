@@ -5,28 +5,31 @@
 import { analyseSliderCrank, eccentric } from '../../linkage/index.js'
 import { inputDependencies, readInputs, type InputSpec } from './inputs.js'
 import { outcome, type BlockKind } from './kind.js'
-import { motionInputs, rotationSign, withLinkage } from './linkage-common.js'
+import { anglesFromInput, motionInputs, rotationSign, withLinkage } from './linkage-common.js'
+import { extremesValues } from './extremes.js'
 import {
   asNamed,
   sliderCrankAssumptions,
+  sliderCrankExtremes,
   sliderCrankMethod,
   sliderCrankResults,
-  sliderCrankSweep,
+  sliderCrankView,
   sliderCrankWarnings,
   summaryNames,
 } from './slider-crank-outcome.js'
 import { publish, quantity, tex, texBare } from './values.js'
 
 const specs: readonly InputSpec[] = [
-  { name: 'eccentricity', label: 'eccentricity (sheave centre to shaft axis)', symbol: 'e', kind: 'length', required: true },
-  { name: 'strap', label: 'strap and rod length (sheave centre to pin)', symbol: 'l', kind: 'length', required: true },
+  { name: 'eccentricity', label: 'eccentricity (sheave centre to shaft axis): the equivalent crank radius', symbol: 'a', kind: 'length', required: true },
+  { name: 'strap', label: 'strap and rod length (sheave centre to pin): the equivalent rod', symbol: 'b', kind: 'length', required: true },
   { name: 'sheave_diameter', label: 'sheave outside diameter', symbol: 'D', kind: 'length', required: true },
   { name: 'shaft_diameter', label: 'shaft diameter', symbol: 'd', kind: 'length', required: true },
   { name: 'minimum_wall', label: 'least sheave wall to leave round the shaft', symbol: 'w_{\\min}', kind: 'length', default: '0 mm' },
-  { name: 'offset', label: 'offset of the slider path from the shaft axis', symbol: 'h', kind: 'length', default: '0 mm' },
+  { name: 'offset', label: 'offset of the slider path from the shaft axis', symbol: 'e', kind: 'length', default: '0 mm' },
   ...motionInputs,
   { name: 'slider_side', label: 'side of the shaft the slider works on', symbol: null, kind: 'choice', choices: ['right', 'left'], default: 'right' },
   { name: 'driver', label: 'driving link', symbol: null, kind: 'choice', choices: ['crank', 'slider'], default: 'crank' },
+  anglesFromInput,
 ]
 
 export const eccentricKind: BlockKind = {
@@ -55,27 +58,30 @@ export const eccentricKind: BlockKind = {
     if (!built) return null
     const { drive, analysis } = built
     const { meta } = context
-    const results = [quantity('sheave_wall', 'thinnest sheave wall round the shaft', 'w', 'length', drive.wall), ...sliderCrankResults(analysis)]
-    publish(context, block.id, [...asNamed(inputs.values), ...results])
+    const view = sliderCrankView(analysis, words.angles_from)
+    const results = [quantity('sheave_wall', 'thinnest sheave wall round the shaft', 'w', 'length', drive.wall), ...sliderCrankResults(view)]
+    const extremes = sliderCrankExtremes(view)
+    publish(context, block.id, [...asNamed(inputs.values), ...results, ...extremesValues(extremes)])
     const wallStep = {
       label: 'Sheave encloses the shaft',
-      formula: 'w = \\frac{D}{2} - e - \\frac{d}{2} \\ \\ge\\ w_{\\min}',
+      formula: 'w = \\frac{D}{2} - a - \\frac{d}{2} \\ \\ge\\ w_{\\min}',
       substituted: `w = \\frac{${texBare(meta, drive.sheaveDiameter, 'length')}}{2} - ${texBare(meta, drive.eccentricity, 'length')} - \\frac{${texBare(meta, drive.shaftDiameter, 'length')}}{2}`,
       result: `w = ${tex(meta, drive.wall, 'length')} \\ \\ge\\ ${tex(meta, drive.minimumWall, 'length')}`,
-      note: 'The eccentric acts as a crank of radius e and the strap as a rod of length l: the slider-crank relations below apply with a = e, b = l.',
+      note: 'The eccentric acts as a crank whose radius is its eccentricity a, and the strap as a rod of length b: the slider-crank relations below apply unchanged. A wall equal to the minimum (within 1e-12 of the sheave diameter) meets it.',
     }
     const from = block.id ?? 'eccentric'
     return outcome(block, 'Eccentric drive', {
       inputs: inputs.values,
       results,
-      method: [wallStep, ...sliderCrankMethod(analysis, context)],
-      warnings: sliderCrankWarnings(analysis, block, context),
+      method: [wallStep, ...sliderCrankMethod(view, context)],
+      warnings: sliderCrankWarnings(view, block, context),
       assumptions: [
         { text: 'The eccentric sheave acts as a crank of radius equal to its eccentricity; friction between strap and sheave is not included.', verify: false, from },
         ...sliderCrankAssumptions(analysis, from),
       ],
       summary: ['sheave_wall', ...summaryNames(analysis)],
-      sweep: sliderCrankSweep(analysis),
+      extremes,
+      sweep: view.source,
     })
   },
 }

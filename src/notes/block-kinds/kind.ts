@@ -3,6 +3,8 @@
  * evaluates into an outcome the package renders. One file per kind.
  */
 import type { VFile } from 'vfile'
+import type { Extremes } from '../../linkage/index.js'
+import type { ExtremesRow } from './extremes.js'
 import type { Scope } from '../expressions.js'
 import type { QuantityKind } from '../quantity.js'
 import type { CalcBlock, InputValue, MethodStep, NamedValue, NoteMeta } from '../types.js'
@@ -38,6 +40,8 @@ export interface SweptQuantity {
 export interface AngleMarker {
   readonly name: string
   readonly label: string
+  /** A few letters for a chart's top edge (ODC, IDC …), explained in its caption. */
+  readonly short: string
   /** rad in [0, 2π) */
   readonly theta: number
 }
@@ -59,23 +63,51 @@ export interface LinkageGeometry {
   readonly crank: number
 }
 
+/**
+ * How a block shows crank (input) angles, the same in its results, tables, charts
+ * and drawing: display angle = sense × (θ − origin), θ being the core's angle
+ * counter-clockwise from +x.
+ */
+export interface AngleConvention {
+  /** Column and axis words, e.g. "crank angle" or "crank angle from outer dead centre". */
+  readonly label: string
+  /** How it is measured, for captions and the method, e.g. "counter-clockwise from +x". */
+  readonly words: string
+  /** Core angle of the zero, rad. */
+  readonly origin: number
+  /** +1: the display angle grows counter-clockwise; −1: clockwise. */
+  readonly sense: 1 | -1
+  /** The reference the drawing marks: the +x axis, or the crank at outer dead centre. */
+  readonly reference: 'x-axis' | 'outer-dead-centre' | 'ground-line'
+}
+
 /** Swept values of a linkage block, for tables and charts (columns in SI). */
 export interface SweepSource {
-  /** 'crank angle' or 'input angle'. */
-  readonly angleLabel: string
-  /** Start and end of the crank-angle range, rad. */
+  /** Start and end of the core's crank-angle range, rad. */
   readonly start: number
   readonly end: number
   readonly fullTurn: boolean
+  /** Input turns before the motion repeats (2 for a deltoid that needs two turns). */
+  readonly periodTurns: 1 | 2
+  readonly convention: AngleConvention
+  /** The range in display angles, ascending, rad. */
+  readonly displayStart: number
+  readonly displayEnd: number
+  /** Sense of rotation (+1 counter-clockwise). */
+  readonly rotation: 1 | -1
+  /** Crank (input) speed magnitude, rad/s. */
+  readonly speed: number
   readonly quantities: readonly SweptQuantity[]
   readonly markers: readonly AngleMarker[]
-  /** Values at the given angles, one Float64Array per quantity name (time wrapped into one cycle). */
+  /** Values at the given core angles, one Float64Array per quantity name (time wrapped into one cycle from the time origin). */
   at(angles: Float64Array): Record<string, Float64Array>
-  /** The core's sweep of `count` angles across the range, ends included (time runs on through the cycle). */
-  sample(count: number): { readonly angles: Float64Array; readonly columns: Record<string, Float64Array> }
+  /** Where time starts: the core angle the crank passes at t = 0. */
+  readonly timeOrigin: number
   readonly geometry: LinkageGeometry
-  /** Exact extremes the analysis found, by quantity name (e.g. the peak velocity), rad and SI. */
-  readonly peaks: Readonly<Record<string, { readonly theta: number; readonly value: number; readonly label: string }>>
+  /** Exact extremes of each swept quantity (core angles, SI values), by quantity name. */
+  readonly extremes: ReadonlyMap<string, Extremes>
+  /** Quantities that grow without bound at the range's ends (a crank that rocks), by name. */
+  readonly unboundedAtEnds: ReadonlySet<string>
 }
 
 /** A check's outcome. */
@@ -108,7 +140,10 @@ export interface CheckOutcome {
 /** A table's outcome: header and rows already in display form. */
 export interface TableOutcome {
   readonly of: string
-  readonly columns: readonly { readonly label: string; readonly unit: string }[]
+  /** How the angle column is measured, in words. */
+  readonly angles: string
+  /** Each column with its unit and the one count of decimals it is printed with. */
+  readonly columns: readonly { readonly label: string; readonly unit: string; readonly decimals: number }[]
   readonly rows: readonly { readonly cells: readonly string[]; readonly marker: string | null }[]
 }
 
@@ -130,7 +165,7 @@ export interface ChartOutcome {
   readonly series: readonly ChartSeries[]
   readonly layout: 'stacked' | 'overlaid'
   /** Dead centres, toggles and limits along the x axis. */
-  readonly markers: readonly { readonly label: string; readonly x: number }[]
+  readonly markers: readonly { readonly label: string; readonly short: string; readonly x: number }[]
   /** A limit line on one series (both signs when symmetric), and which side of it passes. */
   readonly limit: {
     readonly sense: 'at least' | 'at most'
@@ -139,8 +174,15 @@ export interface ChartOutcome {
     readonly series: string
     readonly source: string | null
   } | null
-  /** The analysis's exact extremes on each series (display units), labelled. */
-  readonly peaks: readonly { readonly series: string; readonly x: number; readonly y: number; readonly label: string }[]
+  /**
+   * The analysis's exact extremes on each series (display units): the point, which
+   * way its label goes (above a greatest value, below a least one) and its text.
+   */
+  readonly peaks: readonly { readonly series: string; readonly x: number; readonly y: number; readonly side: 'above' | 'below'; readonly text: string }[]
+  /** Series that grow without bound at the range's ends: their axis is cut to the interior. */
+  readonly unbounded: readonly string[]
+  /** How the x axis's crank angle is measured, when x is an angle; for the caption. */
+  readonly angles: string | null
   readonly width: number
   readonly height: number
   readonly xRange: readonly [number, number] | null
@@ -190,6 +232,8 @@ export interface DrawingOutcome {
   readonly scaleBar: { readonly length: number; readonly text: string }
   readonly width: number
   readonly height: number
+  /** How its crank angle is measured: from the reference direction (core angle, rad) in a sense. */
+  readonly angles: { readonly reference: number; readonly sense: 1 | -1; readonly words: string; readonly fromDeadCentre: boolean }
   /** Words describing the drawing, for its text alternative. */
   readonly description: string
 }
@@ -216,6 +260,8 @@ export interface BlockOutcome {
   /** Names of the results that go into the package summary. */
   readonly summary: readonly string[]
   readonly sweep: SweepSource | null
+  /** The extremes of the block's swept quantities, as a table of named results. */
+  readonly extremes: readonly ExtremesRow[]
   readonly checks: readonly CheckOutcome[]
   readonly table: TableOutcome | null
   readonly chart: ChartOutcome | null
@@ -249,6 +295,7 @@ export function outcome(block: CalcBlock, kindLabel: string, parts: Partial<Bloc
     assumptions: [],
     summary: [],
     sweep: null,
+    extremes: [],
     checks: [],
     table: null,
     chart: null,

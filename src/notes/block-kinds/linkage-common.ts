@@ -8,6 +8,7 @@ import { reportError } from '../report.js'
 import type { CalcBlock } from '../types.js'
 import type { Assumption, EvaluationContext } from './kind.js'
 import type { InputSpec } from './inputs.js'
+import { ANGLE_ORIGINS } from './angles.js'
 
 /** Speed, angular acceleration and sense of rotation of the driving crank. */
 export const motionInputs: readonly InputSpec[] = [
@@ -15,6 +16,16 @@ export const motionInputs: readonly InputSpec[] = [
   { name: 'angular_acceleration', label: 'crank angular acceleration', symbol: '\\alpha', kind: 'angular-acceleration', default: '0 rad/s^2' },
   { name: 'rotation', label: 'sense of crank rotation', symbol: null, kind: 'choice', choices: ['ccw', 'cw'], default: 'ccw' },
 ]
+
+/** How the block's crank angles are measured: from +x (the default) or from the outer dead centre in the sense of rotation. */
+export const anglesFromInput: InputSpec = {
+  name: 'angles_from',
+  label: 'crank angles measured from',
+  symbol: null,
+  kind: 'choice',
+  choices: ANGLE_ORIGINS,
+  default: 'x-axis',
+}
 
 /** Sense of rotation as the core's sign. */
 export function rotationSign(word: string | undefined): 1 | -1 {
@@ -50,6 +61,6 @@ export function kinematicAssumptions(from: string, link: 'crank' | 'input', join
       verify: false,
       from,
     },
-    { text: 'Kinematics only: forces, friction, elastic deflection and manufacturing tolerances are not included.', verify: false, from },
+    { text: 'Kinematics only: forces, friction, elastic deflection, clearances and manufacturing tolerances are not included.', verify: false, from },
   ]
 }

@@ -5,13 +5,15 @@
 import { analyseSliderCrank, sliderCrank } from '../../linkage/index.js'
 import { inputDependencies, readInputs, type InputSpec } from './inputs.js'
 import { outcome, type BlockKind } from './kind.js'
-import { motionInputs, rotationSign, withLinkage } from './linkage-common.js'
+import { anglesFromInput, motionInputs, rotationSign, withLinkage } from './linkage-common.js'
+import { extremesValues } from './extremes.js'
 import {
   asNamed,
   sliderCrankAssumptions,
+  sliderCrankExtremes,
   sliderCrankMethod,
   sliderCrankResults,
-  sliderCrankSweep,
+  sliderCrankView,
   sliderCrankWarnings,
   summaryNames,
 } from './slider-crank-outcome.js'
@@ -20,12 +22,13 @@ import { publish } from './values.js'
 const specs: readonly InputSpec[] = [
   { name: 'crank', label: 'crank radius', symbol: 'a', kind: 'length', required: true },
   { name: 'rod', label: 'connecting-rod length (pin centres)', symbol: 'b', kind: 'length', required: true },
-  { name: 'offset', label: 'offset of the slider path from the crank axis', symbol: 'h', kind: 'length', default: '0 mm' },
+  { name: 'offset', label: 'offset of the slider path from the crank axis', symbol: 'e', kind: 'length', default: '0 mm' },
   ...motionInputs,
   { name: 'slider_side', label: 'side of the crank axis the slider works on', symbol: null, kind: 'choice', choices: ['right', 'left'], default: 'right' },
   { name: 'driver', label: 'driving link', symbol: null, kind: 'choice', choices: ['crank', 'slider'], default: 'crank' },
   { name: 'path_radius', label: 'radius of an arc slider path', symbol: 'R', kind: 'length', word: 'straight', default: 'straight' },
   { name: 'path_tangent', label: 'x of the point where the arc path touches the offset line', symbol: 'x_t', kind: 'length' },
+  anglesFromInput,
 ]
 
 export const sliderCrankKind: BlockKind = {
@@ -51,16 +54,19 @@ export const sliderCrankKind: BlockKind = {
       return analyseSliderCrank(linkage, { speed: si.speed!, angularAcceleration: si.angular_acceleration ?? 0 })
     })
     if (!analysis) return null
-    const results = sliderCrankResults(analysis)
-    publish(context, block.id, [...asNamed(inputs.values), ...results])
+    const view = sliderCrankView(analysis, words.angles_from)
+    const results = sliderCrankResults(view)
+    const extremes = sliderCrankExtremes(view)
+    publish(context, block.id, [...asNamed(inputs.values), ...results, ...extremesValues(extremes)])
     return outcome(block, 'Slider-crank', {
       inputs: inputs.values,
       results,
-      method: sliderCrankMethod(analysis, context),
-      warnings: sliderCrankWarnings(analysis, block, context),
+      extremes,
+      method: sliderCrankMethod(view, context),
+      warnings: sliderCrankWarnings(view, block, context),
       assumptions: sliderCrankAssumptions(analysis, block.id ?? 'slider-crank'),
       summary: summaryNames(analysis),
-      sweep: sliderCrankSweep(analysis),
+      sweep: view.source,
     })
   },
 }

@@ -1,23 +1,26 @@
 /**
  * `table` blocks: chosen swept quantities of a linkage block at chosen crank
- * angles, always with rows at the dead centres (or toggles and limits).
+ * angles, always with rows at the dead centres (or toggles and limits), listed
+ * in time order, each column printed with one count of decimals.
  *
  *     of: pusher
  *     quantities: position, velocity, acceleration, transmission_angle
  *     every: 30 deg
  */
-import { displayUnit, formatNumber, unitLabel } from '../display.js'
+import { columnDecimals, displayUnit, formatFixed, unitLabel } from '../display.js'
 import { evaluateText } from '../expressions.js'
 import { messages } from '../messages.js'
 import { fromSI, readQuantity } from '../quantity.js'
 import { reportError } from '../report.js'
-import { intoRange, openSweepBlock, sweepDependencies } from './sweep-block.js'
+import { toCore, toDisplay, travel } from './angles.js'
+import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type TableOutcome } from './kind.js'
 
 const KNOWN = ['of', 'quantities', 'every', 'at']
-const TURN = 2 * Math.PI
 /** Most rows a table may have: a design review reads it. */
 const MAX_ROWS = 400
+/** A marked position this close (rad) to a stepped row is that row: one row, labelled. */
+const SAME_ROW = 1e-7
 
 export const tableKind: BlockKind = {
   name: 'table',
@@ -38,15 +41,15 @@ export const tableKind: BlockKind = {
         return null
       }
     }
-    // Angles: every step over the range (or the listed ones), then the marked positions.
-    const angles: number[] = []
+    // Rows in display angles: every step over the range (or the listed angles), then the marked positions.
+    const displays: number[] = []
     const at = entries.get('at')
     if (at) {
       for (const part of at.value.split(',')) {
         const evaluated = evaluateText(part.trim(), context.scope, {}, context.blockIds)
         const reading = evaluated.ok ? readQuantity(evaluated.value, 'angle') : null
-        if (!reading?.ok) return fail(`expected angles in \`at\`, e.g. \`0 deg, 90 deg\`; \`${part.trim()}\` is not one`, at.valuePlace)
-        angles.push(reading.si)
+        if (!reading?.ok) return fail(`expected angles in \`at\`, e.g. \`0 deg, 90 deg\` (${source.convention.label}); \`${part.trim()}\` is not one`, at.valuePlace)
+        displays.push(source.fullTurn ? toDisplay(source, toCore(source, reading.si)) : reading.si)
       }
     } else {
       const every = entries.get('every')
@@ -58,40 +61,52 @@ export const tableKind: BlockKind = {
         step = reading.si
       }
       // Round angles (multiples of the step) across the range; its ends come as marked rows.
-      const first = Math.ceil(source.start / step - 1e-9)
-      const last = Math.floor(source.end / step + 1e-9)
+      const first = Math.ceil(source.displayStart / step - 1e-9)
+      const last = Math.floor(source.displayEnd / step + 1e-9)
       if (last - first + 1 > MAX_ROWS) return fail(`\`every\` gives ${last - first + 1} rows; use a larger step (at most ${MAX_ROWS} rows)`, every?.valuePlace)
       for (let k = first; k <= last; k++) {
-        const theta = k * step
-        if (source.fullTurn && theta >= source.start + TURN - 1e-9) break
-        angles.push(theta)
+        const d = k * step
+        if (source.fullTurn && d >= source.displayEnd - 1e-9) break
+        displays.push(d)
       }
     }
-    const rows: { theta: number; marker: string | null }[] = angles.map((theta) => ({ theta: source.fullTurn ? intoRange(theta, 0) : theta, marker: null }))
-    for (const marker of source.markers) rows.push({ theta: intoRange(marker.theta, source.start), marker: marker.label })
-    rows.sort((p, q) => p.theta - q.theta || (p.marker ? 1 : -1))
-    const columns = source.at(Float64Array.from(rows, (r) => r.theta))
+    const rows: { display: number; marker: string | null }[] = displays.map((display) => ({ display, marker: null }))
+    for (const marker of source.markers) {
+      const display = toDisplay(source, marker.theta)
+      const same = rows.find((r) => Math.abs(r.display - display) < SAME_ROW)
+      if (same) same.marker = same.marker ? `${same.marker}, ${marker.label}` : marker.label
+      else rows.push({ display, marker: marker.label })
+    }
+    // Time order: from where the cycle starts, in the sense of rotation.
+    const order = (display: number): number => travel(source, toCore(source, display))
+    rows.sort((p, q) => order(p.display) - order(q.display) || (p.marker ? 1 : -1))
+    const columns = source.at(Float64Array.from(rows, (r) => toCore(source, r.display)))
     const angleUnit = displayUnit('angle', meta.units)
     const chosen = wanted.map((name) => source.quantities.find((q) => q.name === name)!)
-    // Rounding dust (1e-17 m/s at a dead centre) prints as 0: below 1e-12 of the column's largest value.
-    for (const q of chosen) {
+    const angleColumn = rows.map((r) => fromSI(r.display, 'angle', angleUnit))
+    const shown = chosen.map((q) => {
+      const unit = displayUnit(q.kind, meta.units)
       const column = columns[q.name]!
+      // Rounding dust (1e-17 m/s at a dead centre) prints as 0: below 1e-12 of the column's largest value.
       let largest = 0
       for (const v of column) if (Number.isFinite(v)) largest = Math.max(largest, Math.abs(v))
-      for (let i = 0; i < column.length; i++) if (Math.abs(column[i]!) < 1e-12 * largest) column[i] = 0
-    }
+      const values = Array.from(column, (v) => (Math.abs(v) < 1e-12 * largest ? 0 : fromSI(v, q.kind, unit)))
+      // At a limit angle a rate grows without bound: no number there, and none counted for the column's decimals.
+      const unbounded = rows.map((r) => source.unboundedAtEnds.has(q.name) && r.marker !== null && /limit/.test(r.marker))
+      const finite = values.filter((_, i) => !unbounded[i])
+      return { q, unit, values, unbounded, decimals: columnDecimals(finite, meta.digits) }
+    })
+    const angleDecimals = columnDecimals(angleColumn, meta.digits)
     const table: TableOutcome = {
       of: of.value,
+      angles: source.convention.words,
       columns: [
-        { label: source.angleLabel, unit: unitLabel(angleUnit) },
-        ...chosen.map((q) => ({ label: q.label, unit: unitLabel(displayUnit(q.kind, meta.units)) })),
+        { label: source.convention.label, unit: unitLabel(angleUnit), decimals: angleDecimals },
+        ...shown.map((s) => ({ label: s.q.label, unit: unitLabel(s.unit), decimals: s.decimals })),
       ],
       rows: rows.map((row, i) => ({
         marker: row.marker,
-        cells: [
-          formatNumber(fromSI(row.theta, 'angle', angleUnit), meta.digits),
-          ...chosen.map((q) => formatNumber(fromSI(columns[q.name]![i]!, q.kind, displayUnit(q.kind, meta.units)), meta.digits)),
-        ],
+        cells: [formatFixed(angleColumn[i]!, angleDecimals), ...shown.map((s) => (s.unbounded[i] ? 'unbounded' : formatFixed(s.values[i]!, s.decimals)))],
       })),
     }
     return outcome(block, 'Table', { table })

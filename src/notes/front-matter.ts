@@ -21,6 +21,8 @@ export const emptyMeta: NoteMeta = {
   revision: '—',
   project: null,
   purpose: null,
+  scope: null,
+  exclusions: [],
   status: 'draft',
   date: null,
   paper: 'A4',
@@ -108,10 +110,28 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
     else bad('digits', 'expected a whole number of significant digits from 2 to 10')
   }
   const people = readPeople(raw.people, bad)
+  // A signature date before approval would read as signed: the package shows the role as assigned only.
+  if (status !== 'approved') {
+    for (const role of ['checked', 'approved'] as const) {
+      if (people[role]?.date) {
+        const peopleNode = pairs.get('people')?.value
+        const rolePair = isMap(peopleNode) ? (peopleNode.items as Pair<YamlNode, YamlNode>[]).find((p) => String((p.key as { value?: unknown }).value) === role) : undefined
+        reportWarning(file, 'front-matter-field', messages['front-matter-field'](`people.${role}.date`, `the status is \`${status}\`, so the package shows ${people[role]!.name} as assigned to ${role === 'checked' ? 'check' : 'approve'}, not as having signed; the date is printed once the status is \`approved\``), place(rolePair?.key ?? null) ?? at('people'))
+      }
+    }
+  }
   const revisions = readRevisions(raw.revisions, bad)
   const references = readReferences(raw.references, bad)
   const units = readUnits(raw.units, bad)
-  const known = new Set(['title', 'number', 'revision', 'project', 'purpose', 'status', 'date', 'paper', 'units', 'digits', 'people', 'revisions', 'references'])
+  const known = new Set(['title', 'number', 'revision', 'project', 'purpose', 'scope', 'exclusions', 'status', 'date', 'paper', 'units', 'digits', 'people', 'revisions', 'references'])
+  const exclusions: string[] = []
+  if (raw.exclusions !== undefined && raw.exclusions !== null) {
+    const list = Array.isArray(raw.exclusions) ? raw.exclusions : [raw.exclusions]
+    for (const item of list) {
+      if (typeof item === 'string' && item.trim() !== '') exclusions.push(item.trim())
+      else bad('exclusions', 'expected a line of text or a list of them')
+    }
+  }
   for (const [field, pair] of pairs) {
     if (!known.has(field)) {
       reportWarning(file, 'front-matter-field', messages['front-matter-field'](field, `not a field linkwright reads; expected one of ${[...known].map((k) => `\`${k}\``).join(', ')}`), place(pair.key))
@@ -123,6 +143,8 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
     revision: text_('revision') ?? emptyMeta.revision,
     project: text_('project'),
     purpose: text_('purpose'),
+    scope: text_('scope'),
+    exclusions,
     status,
     date,
     paper,

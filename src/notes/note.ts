@@ -76,6 +76,8 @@ export interface NoteModel {
   readonly outcomes: readonly (BlockOutcome | null)[]
   readonly checks: readonly CheckOutcome[]
   readonly assumptions: readonly Assumption[]
+  /** The note's own conclusions, in document order, with the block each came from. */
+  readonly conclusions: readonly { readonly text: string; readonly line: number }[]
   readonly references: readonly NumberedReference[]
   /** sha-256 of the tool name, version and note text (hex). */
   readonly fingerprint: string
@@ -119,6 +121,7 @@ export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null):
     outcomes,
     checks: outcomes.flatMap((o) => o?.checks ?? []),
     assumptions: gatherAssumptions(outcomes),
+    conclusions: outcomes.flatMap((o) => (o ? o.conclusions.map((text) => ({ text, line: o.block.place.start.line })) : [])),
     references: numberReferences(meta, blocks, outcomes, context.citations),
     fingerprint: fingerprint(tool, String(file.value)),
     tool,

@@ -97,7 +97,7 @@ export function resolveProse(tree: Root, context: EvaluationContext): void {
     const evaluated = evaluateText(text, context.scope, {}, context.blockIds)
     if (!evaluated.ok) return fail(evaluated.reason)
     const digitsText = attributes.digits
-    const digits = digitsText ? Number(digitsText) : Math.min(meta.digits, 4)
+    const digits = digitsText ? Number(digitsText) : meta.digits
     if (!Number.isInteger(digits) || digits < 1 || digits > 12) return fail('`digits` must be a whole number from 1 to 12')
     const value = valueOf(evaluated.value)
     if (value === null) return fail('it is not a value')

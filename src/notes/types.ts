@@ -35,6 +35,10 @@ export interface NoteMeta {
   readonly revision: string
   readonly project: string | null
   readonly purpose: string | null
+  /** What the calculation covers, in the note's words (added to the package's own statement). */
+  readonly scope: string | null
+  /** What it leaves out, in the note's words (added to the package's own list). */
+  readonly exclusions: readonly string[]
   readonly status: NoteStatus
   /** Date of the package (YYYY-MM-DD), or 'git' for the note's last commit date. */
   readonly date: string | null

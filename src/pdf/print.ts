@@ -9,6 +9,7 @@ import { resolve, sep } from 'node:path'
 import { pathToFileURL, fileURLToPath } from 'node:url'
 import { writeFileSync } from 'node:fs'
 import { launchBrowser, type RunningBrowser } from './browser.js'
+import { destinationPages } from './destinations.js'
 
 /** One package to print. */
 export interface PrintJob {
@@ -113,16 +114,37 @@ async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintRe
       for (const hidden of document.querySelectorAll('.katex-mathml, .lw-animation')) hidden.remove()
     })
     const { header, footer } = headerFooter(job)
-    const pdf = await page.pdf({
-      format: job.paper === 'Letter' ? 'letter' : 'a4',
-      printBackground: true,
-      displayHeaderFooter: true,
-      headerTemplate: header,
-      footerTemplate: footer,
-      margin: { top: '22mm', bottom: '20mm', left: '25mm', right: '16mm' },
-      preferCSSPageSize: false,
-      timeout: 120_000,
-    })
+    const print = () =>
+      page.pdf({
+        format: job.paper === 'Letter' ? 'letter' : 'a4',
+        printBackground: true,
+        displayHeaderFooter: true,
+        headerTemplate: header,
+        footerTemplate: footer,
+        margin: { top: '22mm', bottom: '20mm', left: '25mm', right: '16mm' },
+        preferCSSPageSize: false,
+        timeout: 120_000,
+      })
+    // The contents gets its page numbers from a first printing (their boxes keep their width,
+    // so the layout does not move); printed again until the numbers stand.
+    let pdf = await print()
+    for (let pass = 0; pass < 3; pass++) {
+      const pages = [...destinationPages(pdf)]
+      const changed = await page.evaluate((entries: [string, number][]) => {
+        let moved = false
+        for (const [id, n] of entries) {
+          for (const cell of document.querySelectorAll(`.lw-contents-page[data-target="${id}"]`)) {
+            if (cell.textContent !== String(n)) {
+              cell.textContent = String(n)
+              moved = true
+            }
+          }
+        }
+        return moved
+      }, pages)
+      if (!changed) break
+      pdf = await print()
+    }
     const bytes = withMetadata(normaliseStructureIds(pdf), job)
     writeFileSync(job.pdf, bytes)
     return { job, ok: true, error: null, pages: countPages(bytes), blocked }

@@ -5,7 +5,7 @@
 import type { Element, ElementContent } from 'hast'
 import { h } from 'hastscript'
 import type { BlockOutcome } from '../notes/block-kinds/kind.js'
-import { displayValue, formatNumber } from '../notes/display.js'
+import { displayValue, formatNumber, unitLabel } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
 import { animationSvg, drawingSvg } from './drawing-svg.js'
@@ -48,19 +48,13 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   if (outcome.table) parts.push(sweepTable(outcome, context))
   if (outcome.chart) parts.push(chartFigure(block, outcome, context))
   if (outcome.drawing) parts.push(drawingFigure(block, outcome))
+  // The note's own assumptions and conclusions are printed once, in their sections; here, where to find them.
   if (block.kind === 'assumptions') {
-    parts.push(
-      h(
-        'ol.lw-assumption-list',
-        outcome.assumptions.map((a) =>
-          h('li', [
-            h('span.lw-assumption-number', `${context.assumptionNumbers.get(a.text) ?? ''} `),
-            ...withCitations(a.text, context.references),
-            a.verify ? h('span.lw-verify', ' (to be verified)') : null,
-          ]),
-        ),
-      ),
-    )
+    const numbers = outcome.assumptions.map((a) => context.assumptionNumbers.get(a.text) ?? '').filter(Boolean)
+    parts.push(h('p.lw-pointer', [`The note’s assumptions ${numbers.length > 1 ? `${numbers[0]}–${numbers[numbers.length - 1]}` : (numbers[0] ?? '')} are listed, with those of the methods, under `, h('a', { href: '#assumptions' }, 'Assumptions'), '.']))
+  }
+  if (block.kind === 'conclusions') {
+    parts.push(h('p.lw-pointer', ['The note’s conclusions are gathered, with what the checks show and the open items, under ', h('a', { href: '#conclusions' }, 'Conclusions'), '.']))
   }
   return h(`section.lw-block.lw-kind-${block.kind}`, { id: blockAnchor(block) }, parts)
 }
@@ -99,10 +93,21 @@ function inputsTable(inputs: readonly InputValue[], context: RenderContext, capt
           : from.length > 0
             ? [text('from '), ...from.flatMap((b, i) => [...(i > 0 ? [text(', ')] : []), h('a', { href: `#${blockAnchor(b)}` }, `#${b.id}`)])]
             : [h('span.lw-missing-source', 'no source given')]
-      if (!isLiteral(written, shown.unit) && input.value.type !== 'text') {
-        source.push(h('span.lw-written', [' — written ', h('code', written)]))
+      // A value written as a number and a unit is shown as written; anything else as computed, with what was written.
+      const literal = input.value.type === 'text' ? null : literalOf(written)
+      if (literal === null && input.value.type !== 'text') source.push(h('span.lw-written', [' — written ', h('code', written)]))
+      let value: ElementContent[] = [h('span.lw-number', shown.number)]
+      let unit = shown.label
+      if (literal) {
+        value = [h('span.lw-number', literal.number.replace(/^-/, '−'))]
+        unit = unitLabel(literal.unit)
+        // Where the written unit is not the package's, the converted value too.
+        if (literal.unit !== shown.unit && input.value.type === 'quantity' && !['ratio', 'count'].includes(input.value.kind)) {
+          value.push(h('br'), h('span.lw-converted', `= ${shown.text}`))
+        }
       }
-      return [symbolCell(input.symbol), input.label, h('span.lw-number', shown.number), shown.label, source]
+      if (input.note) value.push(h('br'), h('span.lw-converted', input.note))
+      return [symbolCell(input.symbol), input.label, value, unit, source]
     }),
   )
 }
@@ -111,10 +116,11 @@ function text(value: string): ElementContent {
   return { type: 'text', value }
 }
 
-/** True when the text is a plain number, optionally with the display unit itself. */
-function isLiteral(text: string, unit: string): boolean {
-  const match = /^\s*-?\d+(?:\.\d+)?(?:e[-+]?\d+)?\s*(\S*)\s*$/i.exec(text)
-  return match !== null && (match[1] === '' || match[1] === unit)
+/** A value written as a plain number with an optional unit (`96 rpm`, `37.8 mm`, `1.15`): its parts, else null. */
+function literalOf(written: string): { number: string; unit: string } | null {
+  const match = /^\s*(-?\d+(?:\.\d+)?(?:e[-+]?\d+)?)\s*([A-Za-z][A-Za-z0-9_]*(?:\s*[*/^]\s*[A-Za-z0-9_]+)*)?\s*$/i.exec(written)
+  if (!match) return null
+  return { number: match[1]!, unit: (match[2] ?? '').replace(/\s+/g, '') }
 }
 
 /** The blocks an input's expression refers to, in document order. */

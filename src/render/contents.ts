@@ -53,6 +53,8 @@ export function contents(headings: readonly Numbered[]): Element {
   const items: ElementContent[] = headings.map((heading) =>
     h(`li.lw-contents-h${heading.level}`, [
       h('a', { href: `#${heading.id}` }, [h('span.lw-contents-number', heading.number), h('span.lw-contents-text', heading.text)]),
+      // Filled with the page number when the package is printed (the screen has no pages).
+      h('span.lw-contents-page', { dataTarget: heading.id }, ''),
     ]),
   )
   return h('section.lw-contents', { id: 'contents', ariaLabel: 'Contents' }, [h('p.lw-contents-title', 'Contents'), h('ol', items)])

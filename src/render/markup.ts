@@ -38,7 +38,8 @@ export function table(
   rows: readonly (readonly (string | ElementContent | ElementContent[])[])[],
   rowClass?: (index: number) => string | null,
 ): Element {
-  return h(`table.lw-table.${className}`, [
+  // Up to a dozen rows fit anywhere on a page: kept whole.
+  return h(`table.lw-table.${className}${rows.length <= 12 ? '.lw-short' : ''}`, [
     caption ? h('caption', caption) : null,
     h('thead', h('tr', header.map((cell) => h('th', { scope: 'col' }, cell)))),
     h(

@@ -27,7 +27,7 @@ import type { BlockNode, NoteModel } from '../notes/note.js'
 import type { CiteNode, ValueNode } from '../notes/prose.js'
 import { renderBlock, type RenderContext } from './block.js'
 import { citation } from './markup.js'
-import { assumptions, caution, cover, footer, references, revisionHistory, signOff, software, statusWords, summary } from './sections.js'
+import { assumptions, conclusions, cover, footer, references, revisionHistory, scope, signOff, software, statusWords, summary } from './sections.js'
 import { contents, numberSections } from './contents.js'
 
 /** Options for {@link renderPackage}. */
@@ -110,13 +110,14 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
   const slotsOfShell = findSlots(shell)
   const sections: Record<string, ElementContent[]> = {
     cover: [cover(model, options.date)],
+    scope: [scope(model)],
     revisions: [revisionHistory(model)],
     summary: [summary(model, context)],
     body: body.children as ElementContent[],
+    conclusions: [conclusions(model, context)],
     assumptions: [assumptions(model, context)],
     references: [references(model)],
     software: [software(model, options.notePath, options.commit)],
-    caution: [caution()],
     'sign-off': [signOff(model)],
     footer: [footer(model)],
   }

@@ -1,14 +1,16 @@
 /**
- * The package's own sections around the note's body: cover, revision history,
- * summary, assumptions, references, calculation software, caution and sign-off.
+ * The package's own sections around the note's body: cover, scope and caution,
+ * revision history, summary, conclusions, assumptions, references, calculation
+ * software and sign-off.
  */
-import type { Element } from 'hast'
+import type { Element, ElementContent } from 'hast'
 import { h } from 'hastscript'
 import { CAUTION } from '../notes/caution.js'
 import { extremesValues } from '../notes/block-kinds/extremes.js'
+import type { Topic } from '../notes/block-kinds/kind.js'
 import { displayValue } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
-import type { Person } from '../notes/types.js'
+import { TEST_COUNT, VERIFICATION } from '../verification.js'
 import { blockAnchor, type RenderContext } from './block.js'
 import { failuresFirst, tallyChecks, tallyWords } from '../notes/tally.js'
 import { checkRowClass, table, verdict, withCitations } from './markup.js'
@@ -23,11 +25,29 @@ export function shortFingerprint(fingerprint: string): string {
   return fingerprint.slice(0, 16).replace(/(.{4})(?=.)/g, '$1 ')
 }
 
-/** Cover: identification of the package. */
+/**
+ * A person in a role as the package may show them: the preparer as written; the
+ * checker and approver with their dates only once the status is approved — before
+ * that they are assigned, not signed.
+ */
+export function signedPerson(model: NoteModel, role: 'prepared' | 'checked' | 'approved'): { name: string; date: string | null; signed: boolean } | null {
+  const person = model.meta.people[role]
+  if (!person) return null
+  const signed = role === 'prepared' || model.meta.status === 'approved'
+  return { name: person.name, date: signed ? person.date : null, signed }
+}
+
+/** Cover: identification of the package, and where its caution is. */
 export function cover(model: NoteModel, date: string | null): Element {
   const { meta } = model
   const row = (label: string, value: string | null, wide = false) =>
     value ? h(`div.lw-cover-row${wide ? '.lw-cover-wide' : ''}`, [h('dt', label), h('dd', value)]) : null
+  const personLine = (role: 'prepared' | 'checked' | 'approved'): string | null => {
+    const p = signedPerson(model, role)
+    if (!p) return null
+    if (!p.signed) return `${p.name} (assigned; not yet signed)`
+    return p.date ? `${p.name}, ${p.date}` : p.name
+  }
   return h('header.lw-cover', { id: 'cover' }, [
     h('p.lw-cover-kind', 'Linkage design calculation'),
     h('h1.lw-title', meta.title),
@@ -37,18 +57,58 @@ export function cover(model: NoteModel, date: string | null): Element {
       row('Project', meta.project),
       row('Status', statusWords(meta.status)),
       row('Date', date),
-      row('Prepared by', personLine(meta.people.prepared)),
-      row('Checked by', personLine(meta.people.checked)),
-      row('Approved by', personLine(meta.people.approved) ?? '—'),
+      row('Prepared by', personLine('prepared')),
+      row('Checked by', personLine('checked') ?? '—'),
+      row('Approved by', personLine('approved') ?? '—'),
       row('Purpose', meta.purpose, true),
     ]),
+    h('p.lw-cover-caution', [h('strong', 'Caution. '), 'These results are for checking by a qualified engineer; read the caution under ', h('a', { href: '#scope' }, 'Scope and caution'), ' before using any of them.']),
     h('p.lw-status-banner', { className: [`lw-status-${meta.status.replace(' ', '-')}`] }, statusWords(meta.status)),
   ])
 }
 
-function personLine(person: Person | null): string | null {
-  if (!person) return null
-  return person.date ? `${person.name}, ${person.date}` : person.name
+/** What each topic means when a package covers it, and the exclusion when it does not. */
+const TOPICS: readonly { topic: Topic; covered: string; excluded: string }[] = [
+  { topic: 'kinematics', covered: 'kinematics: positions, dead centres and toggles, stroke or swing, time ratio, transmission angle, velocities and accelerations over the cycle', excluded: 'Kinematics: not calculated.' },
+  { topic: 'synthesis', covered: 'synthesis of link lengths for the stated requirements', excluded: '' },
+  { topic: 'forces', covered: 'forces, crank torque and drive power from the stated loads and masses', excluded: 'Forces, crank torque, drive power and motor size.' },
+  { topic: 'flywheel', covered: 'the flywheel for a stated speed fluctuation', excluded: 'Flywheel sizing and speed fluctuation.' },
+  { topic: 'strength', covered: 'rod buckling and pin bearing pressures', excluded: 'Strength of the parts: rod buckling, pin and bearing pressures, stresses.' },
+  { topic: 'tolerances', covered: 'the effect of the stated tolerances', excluded: 'The effect of manufacturing tolerances.' },
+  { topic: 'clearances', covered: 'the effect of pin clearances', excluded: 'Pin clearances and wear.' },
+  { topic: 'study', covered: 'parameter studies over the stated ranges', excluded: '' },
+]
+
+/** Left out of every package: what the tool does not calculate at all. */
+const ALWAYS_EXCLUDED = [
+  'Fatigue life, and elastic deflection, vibration and the dynamics of the drive train.',
+  'Lubrication, heating and wear.',
+  'Guarding, safety functions and the machine’s risk assessment.',
+  'Compliance with any code or standard: none is claimed.',
+]
+
+/** Scope and caution: what the package covers and leaves out, and the safety caution. */
+export function scope(model: NoteModel): Element {
+  const covered = new Set(model.outcomes.flatMap((o) => o?.covers ?? []))
+  const linkages = model.blocks.flatMap((b) => {
+    const o = model.outcomes[b.index]
+    return o && o.covers.includes('kinematics') ? [`#${b.id} (${o.kindLabel.toLowerCase()})`] : []
+  })
+  const topics = TOPICS.filter((t) => covered.has(t.topic)).map((t) => t.covered)
+  const exclusions = [...model.meta.exclusions, ...TOPICS.filter((t) => !covered.has(t.topic) && t.excluded).map((t) => t.excluded), ...ALWAYS_EXCLUDED]
+  const checks = tallyChecks(model.checks)
+  return h('section.lw-section', { id: 'scope' }, [
+    h('h2', 'Scope and caution'),
+    model.meta.scope ? h('p', model.meta.scope) : null,
+    h('p', [
+      linkages.length > 0 ? `This package calculates, for ${linkages.join(', ')}: ` : 'This package calculates: ',
+      topics.length > 0 ? topics.join('; ') : 'no linkage',
+      checks.gate.total + checks.informative.total > 0 ? `; and compares the results with ${checks.gate.total + checks.informative.total} acceptance checks.` : '.',
+    ]),
+    h('p.lw-part-title', 'Not covered'),
+    h('ul.lw-exclusions', exclusions.map((e) => h('li', e))),
+    h('div.lw-caution', { id: 'caution', role: 'note' }, [h('p.lw-caution-title', 'Caution'), h('p', CAUTION)]),
+  ])
 }
 
 /** Revision history table. */
@@ -58,7 +118,7 @@ export function revisionHistory(model: NoteModel): Element {
     h('h2', 'Revision history'),
     revisions.length === 0
       ? h('p', `Revision ${revision}: no history given in the front matter.`)
-      : table('lw-revisions', null, ['Revision', 'Date', 'Description'], revisions.map((r) => [r.revision, r.date, r.description])),
+      : table('lw-revisions', null, ['Revision', 'Date', 'Description'], revisions.map((r) => [r.revision, h('span.lw-date', r.date), r.description])),
   ])
 }
 
@@ -98,6 +158,40 @@ export function summary(model: NoteModel, context: RenderContext): Element {
         )
       : null,
     rows.length > 0 ? table('lw-key-results', 'Key results', ['Block', 'Result', 'Value', 'Unit'], rows) : null,
+  ])
+}
+
+/**
+ * Conclusions: what the checks show, the note's own conclusions and
+ * recommendation, and the items still open (assumptions to verify, checks not
+ * evaluated, the engineering warnings raised).
+ */
+export function conclusions(model: NoteModel, context: RenderContext): Element {
+  const tally = tallyChecks(model.checks)
+  const words = tallyWords(tally)
+  const failing = failuresFirst(model.checks).filter((c) => !c.informative && c.status !== 'pass')
+  const toVerify = model.assumptions.filter((a) => a.verify)
+  const warnings = model.blocks.flatMap((b) => (model.outcomes[b.index]?.warnings ?? []).map((w) => ({ block: b, text: w })))
+  const open: ElementContent[] = [
+    ...toVerify.map((a) => h('li', [`Assumption ${context.assumptionNumbers.get(a.text) ?? ''} is to be verified: `, ...withCitations(a.text, context.references)])),
+    ...failing.filter((c) => c.status === 'not-evaluated').map((c) => h('li', `The check “${c.label}” could not be evaluated: ${c.reason ?? 'see the messages'}.`)),
+    ...warnings.map((w) => h('li', [h('a', { href: `#${blockAnchor(w.block)}` }, `#${w.block.id ?? w.block.kind}`), `: ${w.text}.`])),
+  ]
+  return h('section.lw-section', { id: 'conclusions' }, [
+    h('h2', 'Conclusions'),
+    h('p', [
+      h('strong', tally.gate.total === 0 ? 'No acceptance checks are stated. ' : tally.gatePasses ? 'The acceptance checks pass. ' : 'The acceptance checks do not all pass. '),
+      tally.gate.total + tally.informative.total > 0 ? `${words.charAt(0).toUpperCase()}${words.slice(1)}.` : '',
+    ]),
+    failing.length > 0
+      ? h('ul', failing.map((c) => h('li', c.status === 'fail' ? `FAIL: ${c.label}: ${c.actual}, limit ${c.limit}.` : `NOT EVALUATED: ${c.label}.`)))
+      : null,
+    h('p.lw-part-title', 'Conclusions and recommendation of the note'),
+    model.conclusions.length > 0
+      ? h('ol.lw-conclusions', model.conclusions.map((c) => h('li', withCitations(c.text, context.references))))
+      : h('p.lw-missing-source', 'The note states no conclusion or recommendation (a `conclusions` block gives them).'),
+    h('p.lw-part-title', 'Open items'),
+    open.length > 0 ? h('ul.lw-open-items', open) : h('p', 'None: no assumption awaits verification, every check was evaluated and no warning was raised.'),
   ])
 }
 
@@ -147,30 +241,30 @@ export function software(model: NoteModel, notePath: string, commit: string): El
       h('div', [h('dt', 'Outputs'), h('dd', 'this package (HTML, PDF) and results.json beside it')]),
       h('div', [
         h('dt', 'Verification'),
-        h(
-          'dd',
-          'The linkage core is checked by the program’s test suite against published worked examples, handbook formulas, an independent symbolic differentiation and invariants over thousands of random linkages; the checks and their sources are listed with the program.',
-        ),
+        h('dd', [
+          h('p', `${TEST_COUNT === null ? 'The program’s test suite' : `The program’s test suite (${TEST_COUNT} test cases at this source revision)`} checks the calculation core against these outside sources, each marked with how well it is known; the program’s README lists them with their tests:`),
+          h(
+            'ul.lw-verification',
+            VERIFICATION.map((v) => h('li', [v.what, ' — ', v.source, h('span.lw-standing', ` (${v.standing})`)])),
+          ),
+        ]),
       ]),
     ]),
   ])
 }
 
-/** The safety caution every package carries. */
-export function caution(): Element {
-  return h('section.lw-section.lw-caution', { id: 'caution', role: 'note' }, [h('h2', 'Caution'), h('p', CAUTION)])
-}
-
 /** Sign-off: roles with name, date and signature lines, the checker's checklist and the fingerprint. */
 export function signOff(model: NoteModel): Element {
-  const { people } = model.meta
-  const role = (label: string, person: Person | null) =>
-    h('tr', [
+  // Until the status is approved the checker and approver are assigned, not signed: no dates.
+  const role = (label: string, key: 'prepared' | 'checked' | 'approved') => {
+    const person = signedPerson(model, key)
+    return h('tr', [
       h('th', { scope: 'row' }, label),
-      h('td', person?.name ?? ''),
-      h('td', person?.date ?? ''),
+      h('td', person ? (person.signed ? person.name : `${person.name} (assigned)`) : ''),
+      h('td.lw-date', person?.date ?? ''),
       h('td.lw-signature', { ariaLabel: `signature of the person who ${label.toLowerCase()}` }, ''),
     ])
+  }
   const checklist = [
     'Inputs verified against their stated sources',
     'Method appropriate for the mechanism and its duty',
@@ -182,7 +276,7 @@ export function signOff(model: NoteModel): Element {
     h('h2', 'Sign-off'),
     h('table.lw-table.lw-roles', [
       h('thead', h('tr', [h('th', { scope: 'col' }, 'Role'), h('th', { scope: 'col' }, 'Name'), h('th', { scope: 'col' }, 'Date'), h('th', { scope: 'col' }, 'Signature')])),
-      h('tbody', [role('Prepared', people.prepared), role('Checked', people.checked), role('Approved', people.approved)]),
+      h('tbody', [role('Prepared', 'prepared'), role('Checked', 'checked'), role('Approved', 'approved')]),
     ]),
     h('p.lw-part-title', 'Checker’s checklist'),
     h('ul.lw-checklist', checklist.map((item) => h('li', [h('span.lw-box', { ariaHidden: 'true' }, '☐ '), item]))),

@@ -46,7 +46,7 @@ describe('in-line slider-crank (SC-1)', () => {
 describe('piston displacement, exact and two-term (SC-2)', () => {
   // Exact form: Heywood, ICE Fundamentals (1988), Sec. 2.2 (from memory).
   // Two-term "primary + secondary" form: R. L. Norton, Design of Machinery,
-  // McGraw-Hill, Ch. 13 "Engine dynamics", Eq. 13.3 (from memory).
+  // McGraw-Hill, 5th ed. 2012 (edition from memory), Ch. 13 "Engine dynamics", Eq. 13.3 (from memory).
   const r = 50 * mm
   const l = 200 * mm
   const twoTerm = (theta: number, crank: number, rod: number): number =>
@@ -171,9 +171,10 @@ describe('crank angle of the greatest piston speed (textbook worked example)', (
   })
 })
 
-describe('mean piston speed (published worked example)', () => {
-  // Wikipedia, "Mean piston speed", worked example: a 90 mm stroke at 3000 rpm
-  // gives 9 m/s (published copy, confirmed in the field-check sheet).
+describe('mean piston speed', () => {
+  // v̄ = 2·S·n: J. B. Heywood, Internal Combustion Engine Fundamentals, McGraw-Hill,
+  // 1988, §2.2 (from memory). The figures are computed here, not taken from a book:
+  // a 90 mm stroke at 3000 rpm gives 2 × 0.090 m × 50 s⁻¹ = 9 m/s.
   it('should give 9 m/s for a 90 mm stroke at 3000 rpm', () => {
     const result = analyseSliderCrank(sliderCrank({ crank: 45 * mm, rod: 150 * mm }), { speed: rpm(3000) })
     expectClose(result.meanSpeed!, 9, { rel: 1e-12 })

@@ -40,7 +40,7 @@ describe('bad input', () => {
       BODY_LINE,
       1,
       'unknown-block-kind',
-      messages['unknown-block-kind']('slidercrank', ['design-inputs', 'slider-crank-synthesis', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions']),
+      messages['unknown-block-kind']('slidercrank', ['design-inputs', 'slider-crank-synthesis', 'slider-crank', 'eccentric', 'four-bar', 'checks', 'table', 'chart', 'drawing', 'assumptions', 'conclusions']),
     ])
   })
 

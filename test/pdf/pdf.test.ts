@@ -11,6 +11,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs'
 import { beforeAll, describe, expect, it } from 'vitest'
+import { destinationPages } from '../../src/pdf/destinations.js'
 
 const root = new URL('../../', import.meta.url).pathname
 const bin = join(root, 'bin', 'linkwright.js')
@@ -102,11 +103,28 @@ describe('PDF packages of the demo notes', () => {
     }
   })
 
-  it('should need as many pages as the content: a cover, the contents, no blank page', () => {
+  it('should give the contents the pages the sections print on, as a PDF library reads them', async () => {
+    const doc = await getDocument({ data: new Uint8Array(readFileSync(pdf())), useSystemFonts: false, isEvalSupported: false }).promise
+    const ours = destinationPages(readFileSync(pdf()))
+    const sections = [...ours].filter(([id]) => id.startsWith('section-'))
+    expect(sections.length).toBeGreaterThan(8)
+    for (const [id, page] of sections) {
+      const dest = (await doc.getDestination(id)) as [{ num: number; gen: number }, ...unknown[]]
+      expect((await doc.getPageIndex(dest[0])) + 1, id).toBe(page)
+    }
+    await doc.destroy()
+    // And the contents prints them: the page that holds the Assumptions table is the number after "Assumptions".
+    const page = pusher.pages.findIndex((text) => text.includes('No. Assumption Stated by Status')) + 1
+    expect(page).toBeGreaterThan(2)
+    expect(pusher.pages[0]).toMatch(new RegExp(`Assumptions ${page}\\b`))
+  })
+
+  it('should need as many pages as the content: cover, contents and scope sharing the first, no blank page', () => {
     expect(pusher.pages.length).toBeGreaterThanOrEqual(8)
     expect(pusher.pages.length).toBeLessThanOrEqual(24)
     expect(pusher.pages[0]).toContain('Document DN-T3-014 Revision C')
-    expect(pusher.pages[1]).toContain('Contents')
+    expect(pusher.pages[0]).toContain('Contents')
+    expect(pusher.pages[0]).toContain('Scope and caution')
     for (const [i, text] of pusher.pages.entries()) {
       // Beyond the header and footer (~25 words) every page has content.
       expect(text.split(' ').length, `page ${i + 1}`).toBeGreaterThan(35)

@@ -47,7 +47,7 @@ describe('package sections', () => {
   })
 
   it('should hold every section in the order a design review reads them', () => {
-    const order = ['cover', 'contents', 'revisions', 'summary', 'assumptions', 'references', 'software', 'caution', 'sign-off']
+    const order = ['cover', 'contents', 'scope', 'caution', 'revisions', 'summary', 'conclusions', 'assumptions', 'references', 'software', 'sign-off']
     const found = ids(html)
     const positions = order.map((id) => found.indexOf(id))
     expect(positions.every((p) => p >= 0)).toBe(true)
@@ -80,6 +80,41 @@ describe('package sections', () => {
     expect(caution).toContain('Guarding, fatigue, and the local codes and licensed engineering practice')
     expect(caution).toContain('does not claim compliance with any code or standard')
     expect(html).not.toMatch(/\bcomplies with\b|\bcompliant with\b|\bcertified\b/i)
+  })
+
+  it('should point to the caution from the cover', () => {
+    const cover = toString(byId(html, 'cover')!)
+    expect(cover).toContain('read the caution under Scope and caution before using any of them')
+  })
+
+  it('should state its scope and what it leaves out, near the front', () => {
+    const scope = toString(byId(html, 'scope')!)
+    expect(scope).toContain('This package calculates, for #pusher (slider-crank), #option_b (eccentric drive): kinematics')
+    expect(scope).toContain('Forces, crank torque, drive power and motor size.')
+    expect(scope).toContain('Compliance with any code or standard: none is claimed.')
+  })
+
+  it('should conclude: what the checks show, the note’s recommendation, the open items', () => {
+    const conclusions = toString(byId(html, 'conclusions')!)
+    expect(conclusions).toContain('The acceptance checks pass.')
+    expect(conclusions).toContain('Recommendation: build option A')
+    expect(conclusions).toContain('Assumption A1 is to be verified: The gearbox output turns at a steady 96 rpm')
+    // Printed once: in place the blocks only point to their sections.
+    expect(html.split('Recommendation: build option A').length).toBe(2)
+    expect(html.split('The gearbox output turns at a steady 96 rpm').length).toBe(3)
+  })
+
+  it('should show a checker as assigned, not signed, while the status is for review', () => {
+    const signOff = toString(byId(html, 'sign-off')!)
+    expect(signOff).toContain('M. Lindqvist (assigned)')
+    expect(toString(byId(html, 'cover')!)).toContain('M. Lindqvist (assigned; not yet signed)')
+  })
+
+  it('should say how the program was verified: its outside sources and their standing', () => {
+    const software = toString(byId(html, 'software')!)
+    expect(software).toContain('J. B. Heywood, Internal Combustion Engine Fundamentals, McGraw-Hill, 1988, §2.2 (from memory)')
+    expect(software).toContain('(independent library)')
+    expect(software).not.toContain('listed with the program.')
   })
 
   it('should tie the sign-off to the fingerprint, shown there and in the footer', () => {
@@ -145,6 +180,6 @@ describe('sanitising', () => {
     expect(html).toContain('class="katex"')
     // The spoofed id is prefixed, so the real summary keeps its id.
     expect(ids(html).filter((id) => id === 'summary')).toHaveLength(1)
-    expect(html).toContain('class="lw-section lw-caution"')
+    expect(html).toContain('class="lw-caution"')
   })
 })

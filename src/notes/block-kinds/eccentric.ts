@@ -71,6 +71,7 @@ export const eccentricKind: BlockKind = {
     }
     const from = block.id ?? 'eccentric'
     return outcome(block, 'Eccentric drive', {
+      covers: ['kinematics'],
       inputs: inputs.values,
       results,
       method: [wallStep, ...sliderCrankMethod(view, context)],

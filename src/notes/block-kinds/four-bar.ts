@@ -61,6 +61,7 @@ export const fourBarKind: BlockKind = {
     const assumptions = kinematicAssumptions(from, 'input', 'pin joints')
     const drive = analysis.linkage.driver === 'output' ? ['needs_stored_energy'] : []
     return outcome(block, 'Four-bar linkage', {
+      covers: ['kinematics'],
       inputs: inputs.values,
       results,
       extremes,

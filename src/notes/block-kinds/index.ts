@@ -4,6 +4,7 @@
  */
 import { assumptionsKind } from './assumptions.js'
 import { chartKind } from './chart.js'
+import { conclusionsKind } from './conclusions.js'
 import { drawingKind } from './drawing.js'
 import { checksKind } from './checks.js'
 import { eccentricKind } from './eccentric.js'
@@ -16,7 +17,7 @@ import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind].map((k) => [k.name, k]),
+  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

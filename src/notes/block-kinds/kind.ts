@@ -247,6 +247,9 @@ export interface Assumption {
   readonly from: string | null
 }
 
+/** What a package can cover; the scope statement lists what its blocks cover and excludes the rest. */
+export type Topic = 'kinematics' | 'synthesis' | 'forces' | 'flywheel' | 'strength' | 'tolerances' | 'clearances' | 'study'
+
 /** What evaluating one block gave. */
 export interface BlockOutcome {
   readonly block: CalcBlock
@@ -257,8 +260,12 @@ export interface BlockOutcome {
   /** Engineering cautions in plain words. */
   readonly warnings: readonly string[]
   readonly assumptions: readonly Assumption[]
+  /** The note's own conclusions (a conclusions block). */
+  readonly conclusions: readonly string[]
   /** Names of the results that go into the package summary. */
   readonly summary: readonly string[]
+  /** What the block calculates, for the package's scope statement. */
+  readonly covers: readonly Topic[]
   readonly sweep: SweepSource | null
   /** The extremes of the block's swept quantities, as a table of named results. */
   readonly extremes: readonly ExtremesRow[]
@@ -293,7 +300,9 @@ export function outcome(block: CalcBlock, kindLabel: string, parts: Partial<Bloc
     method: [],
     warnings: [],
     assumptions: [],
+    conclusions: [],
     summary: [],
+    covers: [],
     sweep: null,
     extremes: [],
     checks: [],

@@ -59,6 +59,7 @@ export const sliderCrankKind: BlockKind = {
     const extremes = sliderCrankExtremes(view)
     publish(context, block.id, [...asNamed(inputs.values), ...results, ...extremesValues(extremes)])
     return outcome(block, 'Slider-crank', {
+      covers: ['kinematics'],
       inputs: inputs.values,
       results,
       extremes,

@@ -72,6 +72,7 @@ export const synthesisKind: BlockKind = {
       },
     ]
     return outcome(block, 'Slider-crank synthesis', {
+      covers: ['synthesis'],
       inputs: inputs.values,
       results,
       method,

@@ -1,0 +1,44 @@
+/**
+ * How the tool is verified, for the package's calculation-software section: the
+ * outside sources its test suite checks the core against, each with how well the
+ * source is known and the test file that holds the check (a test keeps this list
+ * and the suite in step), and the number of test cases at this revision.
+ */
+
+/** One outside check of the test suite. */
+export interface VerificationCheck {
+  /** What is checked, in a few words. */
+  readonly what: string
+  /** The source: author, title, edition, section — or the independent referee. */
+  readonly source: string
+  /** How well the source is known. */
+  readonly standing: 'confirmed' | 'textbook example' | 'from memory' | 'derived' | 'independent library' | 'common practice, no source'
+  /** The test file that holds the check, and a phrase found in it. */
+  readonly test: string
+  readonly mark: string
+}
+
+/** The outside checks, grouped by topic. */
+export const VERIFICATION: readonly VerificationCheck[] = [
+  { what: 'in-line stroke = 2 × crank, exact piston displacement', source: 'J. B. Heywood, Internal Combustion Engine Fundamentals, McGraw-Hill, 1988, §2.2', standing: 'from memory', test: 'test/linkage/slider-crank.test.ts', mark: 'SC-1' },
+  { what: 'two-term (primary + secondary) displacement and its error', source: 'R. L. Norton, Design of Machinery, McGraw-Hill, 5th ed., 2012, ch. 13', standing: 'from memory', test: 'test/linkage/slider-crank.test.ts', mark: 'SC-2' },
+  { what: 'exact piston velocity and acceleration, dead-centre accelerations', source: 'derived in closed form; field-check cases SC-3', standing: 'derived', test: 'test/linkage/slider-crank.test.ts', mark: 'SC-3' },
+  { what: 'crank angle of the greatest piston speed', source: 'R. S. Khurmi, J. K. Gupta, Theory of Machines, S. Chand, Example 15.3 (edition not confirmed)', standing: 'textbook example', test: 'test/linkage/slider-crank.test.ts', mark: 'Example 15.3' },
+  { what: 'offset stroke, dead-centre angles and time ratio', source: 'J. J. Uicker, G. R. Pennock, J. E. Shigley, Theory of Machines and Mechanisms, Oxford University Press, 3rd ed., 2003', standing: 'from memory', test: 'test/linkage/slider-crank.test.ts', mark: 'OSC-1' },
+  { what: 'Grashof condition and classes', source: 'W.-T. Chang, C.-C. Lin, L.-I. Wu, “A note on Grashof’s theorem”, J. Marine Science and Technology 13(4), 2005', standing: 'confirmed', test: 'test/linkage/four-bar.test.ts', mark: 'FB-1' },
+  { what: 'four-bar position on both circuits (Freudenstein’s equation)', source: 'F. Freudenstein, “Approximate synthesis of four-bar linkages”, Trans. ASME 77, 1955', standing: 'from memory', test: 'test/linkage/four-bar.test.ts', mark: 'FB-2' },
+  { what: 'four-bar example θ3 = 20.298°, θ4 = 57.325°', source: 'R. L. Norton, Design of Machinery, 5th ed., Example 4-1', standing: 'from memory', test: 'test/linkage/four-bar.test.ts', mark: 'Example 4-1' },
+  { what: 'transmission-angle extremes at θ2 = 0° and 180°; the worst of μmin and 180° − μmax', source: 'law of cosines; the criterion after H. Alt (1932), as surveyed by S. S. Balli, S. Chand, Mechanism and Machine Theory 37, 2002', standing: 'derived', test: 'test/linkage/four-bar.test.ts', mark: 'FB-3' },
+  { what: 'crank-rocker toggles, output swing and time ratio', source: 'toggle construction, derived; field-check case FB-5', standing: 'derived', test: 'test/linkage/four-bar.test.ts', mark: 'FB-5' },
+  { what: 'unit-time-ratio crank-rocker', source: 'R. J. Brodell, A. H. Soni, “Design of the crank-rocker mechanism with unit time ratio”, J. Mechanisms 5, 1970', standing: 'from memory', test: 'test/linkage/four-bar.test.ts', mark: 'FB-6' },
+  { what: 'parallelogram, antiparallelogram and deltoid change-point linkages', source: 'elementary geometry (a parallelogram’s output copies its input; the equilateral poses of a deltoid)', standing: 'derived', test: 'test/linkage/four-bar.test.ts', mark: 'change-point linkages' },
+  { what: 'offset slider-crank synthesis for stroke and time ratio', source: 'the two dead-centre triangles, derived; field-check case SY-1', standing: 'derived', test: 'test/linkage/synthesis.test.ts', mark: 'SY-1' },
+  { what: 'mean slider speed 2·S·n', source: 'J. B. Heywood, Internal Combustion Engine Fundamentals, 1988, §2.2', standing: 'from memory', test: 'test/linkage/slider-crank.test.ts', mark: 'mean piston speed' },
+  { what: 'first and second derivatives of the slider position', source: 'symbolic differentiation by mathjs (npm), an independent referee', standing: 'independent library', test: 'test/linkage/referee.test.ts', mark: 'mathjs' },
+  { what: 'loop closure, derivatives against central differences, sweep extremes, Grashof against the input range, limits of long links', source: 'property tests over thousands of random linkages (fast-check, npm)', standing: 'independent library', test: 'test/linkage/properties.test.ts', mark: 'fc.' },
+]
+
+declare const __LINKWRIGHT_TESTS__: number | undefined
+
+/** Test cases in the suite at the revision the bundle was built from, or null when run from source. */
+export const TEST_COUNT: number | null = typeof __LINKWRIGHT_TESTS__ === 'number' ? __LINKWRIGHT_TESTS__ : null

@@ -166,6 +166,24 @@ describe('transmission-angle extremes (FB-3)', () => {
   })
 })
 
+describe('worst transmission angle from the greatest μ (FB-3 formulas, other supplement)', () => {
+  // a = 45, b = c = 100, d = 150 mm: μ at θ2 = 180° is 154.3°, so 180° − μmax = 25.7° is
+  // worse than μmin = 63.3° at θ2 = 0°. Both from the law-of-cosines forms of FB-3 (derived).
+  const [a, b, c, d] = [45, 100, 100, 150]
+  const mu0 = Math.acos((b * b + c * c - (d - a) ** 2) / (2 * b * c))
+  const mu180 = Math.acos((b * b + c * c - (d + a) ** 2) / (2 * b * c))
+
+  it('should take the worst from 180° − μmax when that is smaller, at θ2 = 180°', () => {
+    const result = analyseFourBar(fourBar({ ground: d * mm, input: a * mm, coupler: b * mm, output: c * mm }), { speed: 1 })
+    expectClose(deg(mu0), 63.33, { abs: 0.01 })
+    expectClose(deg(mu180), 154.3, { abs: 0.05 })
+    expectClose(result.transmissionMin.value, mu0, { rel: 1e-12 })
+    expectClose(result.transmissionMax.value, mu180, { rel: 1e-12 })
+    expectClose(result.transmissionWorst.value, Math.PI - mu180, { rel: 1e-12 })
+    expectClose(deg(result.transmissionWorst.theta), 180, { abs: 1e-9 })
+  })
+})
+
 describe('crank-rocker toggles, swing and time ratio (FB-5)', () => {
   // Output extremes where crank and coupler fall in line: the standard toggle
   // construction (Norton, Design of Machinery, Ch. 3 and 4; Uicker, Pennock &

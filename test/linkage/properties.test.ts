@@ -6,6 +6,7 @@
  */
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
+import { expectClose } from '../helpers/close.js'
 import {
   DDX,
   DX,
@@ -15,6 +16,7 @@ import {
   H4,
   H4P,
   POSITION,
+  TRANSMISSION,
   SLIDER_CRANK_STATE,
   SliderCrankSweep,
   THETA3,
@@ -225,8 +227,26 @@ describe('four-bar invariants', () => {
         const state = new Float64Array(SLIDER_CRANK_STATE)
         sliderCrankState(sliderCrank({ ...input, pathRadius: 1e6 * scale }), 1, state)
         expect(Math.abs(state[POSITION]! - sliderPosition(input.crank, input.rod, input.offset, input.sliderSide, 1))).toBeLessThanOrEqual(1e-5 * scale)
+        // The transmission angle too, against the straight path's closed form acos(|a sinθ − e|/b) (OSC-1's μ), never over 90°.
+        for (const theta of [0.3, 1.9, 3.5, 5.1]) {
+          sliderCrankState(sliderCrank({ ...input, pathRadius: 1e6 * scale }), theta, state)
+          const closed = Math.acos(Math.min(1, Math.abs(input.crank * Math.sin(theta) - input.offset) / input.rod))
+          expect(state[TRANSMISSION]!).toBeLessThanOrEqual(Math.PI / 2)
+          expect(Math.abs(state[TRANSMISSION]! - closed)).toBeLessThanOrEqual(1e-4)
+        }
+        expect(Math.abs(arc.transmissionMin.value - straight.transmissionMin.value)).toBeLessThanOrEqual(1e-4)
       }),
       { ...runs, numRuns: 300 },
     )
+  })
+
+  it('should give the arc path of OSC-1 its least transmission angle, 90° minus the largest rod angle', () => {
+    // r, l, e = 50, 200, 30 mm: μmin = 90° − asin((r + e)/l) = 66.4218215° (OSC-1, derived), on either side of the path.
+    for (const side of [1, -1] as const) {
+      for (const sign of [1, -1]) {
+        const arc = analyseSliderCrank(sliderCrank({ crank: 0.05, rod: 0.2, offset: 0.03, sliderSide: side, pathRadius: sign * 1e4 }), { speed: 1 })
+        expectClose((arc.transmissionMin.value * 180) / Math.PI, 66.4218215, { abs: 1e-4 })
+      }
+    }
   })
 })

@@ -32,6 +32,7 @@ export const RENAMED_RESULTS: ReadonlyMap<string, string> = new Map([
   ['peak_output_velocity_at', '`output_angular_velocity_abs_max_at`'],
   ['peak_output_acceleration', '`output_angular_acceleration_abs_max` (largest magnitude) or `output_angular_acceleration_max` / `_min` (signed)'],
   ['peak_output_acceleration_at', '`output_angular_acceleration_abs_max_at`'],
+  ['alpha', '`excess_angle` (the slower stroke’s crank travel beyond 180°, written Δ: α is the crank’s angular acceleration)'],
 ])
 
 /**

@@ -15,7 +15,7 @@ import { publish, quantity, tex, texBare } from './values.js'
 const specs: readonly InputSpec[] = [
   { name: 'stroke', label: 'required stroke', symbol: 'S', kind: 'length', required: true },
   { name: 'time_ratio', label: 'required quick-return time ratio (slower / faster stroke)', symbol: 'Q', kind: 'ratio', required: true },
-  { name: 'offset', label: 'chosen offset of the slider path', symbol: 'h', kind: 'length', required: true },
+  { name: 'offset', label: 'chosen offset of the slider path', symbol: 'e', kind: 'length', required: true },
 ]
 
 export const synthesisKind: BlockKind = {
@@ -38,37 +38,38 @@ export const synthesisKind: BlockKind = {
       quantity('crank', 'crank radius', 'a', 'length', design.crank),
       quantity('rod', 'connecting-rod length', 'b', 'length', design.rod),
       quantity('rod_ratio', 'crank-to-rod ratio a/b', '\\lambda', 'ratio', design.crank / design.rod),
-      quantity('alpha', 'crank angle between the dead centres beyond 180°', '\\alpha', 'angle', design.alpha),
-      quantity('full_turn_margin', 'margin to a crank that cannot turn, b − a − |h|', null, 'length', design.fullTurnMargin),
-      quantity('offset_limit', 'largest offset with a full turn, S·cot α', null, 'length', design.offsetLimit),
+      quantity('excess_angle', 'crank travel of the slower stroke beyond 180°', '\\Delta', 'angle', design.alpha),
+      quantity('full_turn_margin', 'margin to a crank that cannot turn, b − a − |e|', null, 'length', design.fullTurnMargin),
+      quantity('offset_limit', 'largest offset with a full turn, S·cot Δ', null, 'length', design.offsetLimit),
     ]
     publish(context, block.id, [...asNamed(inputs.values), ...results])
     const method = [
       {
         label: 'Dead-centre angle from the time ratio',
-        formula: '\\alpha = 180^\\circ\\,\\frac{Q - 1}{Q + 1}',
-        substituted: `\\alpha = 180^\\circ \\cdot \\frac{${texBare(meta, q, 'ratio')} - 1}{${texBare(meta, q, 'ratio')} + 1}`,
-        result: `\\alpha = ${tex(meta, design.alpha, 'angle')}`,
+        formula: '\\Delta = 180^\\circ\\,\\frac{Q - 1}{Q + 1}',
+        substituted: `\\Delta = 180^\\circ \\cdot \\frac{${texBare(meta, q, 'ratio')} - 1}{${texBare(meta, q, 'ratio')} + 1}`,
+        result: `\\Delta = ${tex(meta, design.alpha, 'angle')}`,
+        note: 'Δ is the crank travel of the slower stroke beyond 180°, between the two dead centres.',
       },
       {
         label: 'The two dead-centre triangles',
-        formula: 'S^2 = L_1^2 + L_2^2 - 2L_1L_2\\cos\\alpha,\\qquad h\\,S = L_1L_2\\sin\\alpha,\\qquad L_1 = b - a,\\ L_2 = b + a',
+        formula: 'S^2 = L_1^2 + L_2^2 - 2L_1L_2\\cos\\Delta,\\qquad e\\,S = L_1L_2\\sin\\Delta,\\qquad L_1 = b - a,\\ L_2 = b + a',
         substituted: `L_1L_2 = \\frac{${L(h)} \\cdot ${L(stroke)}}{\\sin ${texBare(meta, design.alpha, 'angle')}}`,
         result: `L_1L_2 = ${texBare(meta, product * fromSI(1, 'length', lengthUnit) ** 2, 'ratio')}\\,\\mathrm{${texUnit(lengthUnit)}^2}`,
-        note: 'Law of cosines between the slider positions at the two dead centres, and twice the area of the triangle they make with the crank axis (base S, height h).',
+        note: 'Law of cosines between the slider positions at the two dead centres, and twice the area of the triangle they make with the crank axis (base S, height e, the offset).',
       },
       {
         label: 'Crank and rod',
-        formula: 'a = \\tfrac{1}{2}\\sqrt{S^2 - 2L_1L_2(1 - \\cos\\alpha)},\\qquad b = \\tfrac{1}{2}\\sqrt{S^2 + 2L_1L_2(1 + \\cos\\alpha)}',
+        formula: 'a = \\tfrac{1}{2}\\sqrt{S^2 - 2L_1L_2(1 - \\cos\\Delta)},\\qquad b = \\tfrac{1}{2}\\sqrt{S^2 + 2L_1L_2(1 + \\cos\\Delta)}',
         substituted: null,
         result: `a = ${tex(meta, design.crank, 'length')},\\ b = ${tex(meta, design.rod, 'length')}`,
       },
       {
         label: 'The crank turns fully',
-        formula: '|h| < S\\cot\\alpha \\iff b - a - |h| > 0',
+        formula: '|e| < S\\cot\\Delta \\iff b - a - |e| > 0',
         substituted: `${L(h)} < ${L(design.offsetLimit)}`,
-        result: `b - a - |h| = ${tex(meta, design.fullTurnMargin, 'length')}`,
-        note: 'Past S·cot α the triangle would put the crank axis over the stroke. Which stroke is the slow one follows from the sign of the offset and the sense of rotation: analyse the chosen lengths in a slider-crank block.',
+        result: `b - a - |e| = ${tex(meta, design.fullTurnMargin, 'length')}`,
+        note: 'Past S·cot Δ the triangle would put the crank axis over the stroke. Which stroke is the slow one follows from the sign of the offset and the sense of rotation: analyse the chosen lengths in a slider-crank block.',
       },
     ]
     return outcome(block, 'Slider-crank synthesis', {

@@ -12,7 +12,7 @@ import { chartSpec } from '../src/render/chart-spec.js'
 import { chartSvg } from '../src/render/chart-svg.js'
 import { drawingSvg } from '../src/render/drawing-svg.js'
 import { TOOL } from '../src/version.js'
-import { median, printTable } from './measure.js'
+import { median, record } from './measure.js'
 
 const root = process.cwd()
 const template = readFileSync(join(root, 'templates/package.html'), 'utf8')
@@ -72,15 +72,14 @@ export async function runFiguresBench(): Promise<void> {
   }
   const mid = (list: number[]) => [...list].sort((a, b) => a - b)[Math.floor(list.length / 2)]!
   const [without, withCached, withUncached] = times.map(mid) as [number, number, number]
-  start = performance.now()
-  printTable('Charts and drawings', [
-    { name: '361-point line chart, first render in process', value: `${first.toFixed(0)} ms`, note: 'includes loading vega and vega-lite' },
-    { name: '361-point line chart, uncached', value: `${uncached.toFixed(1)} ms` },
-    { name: '361-point line chart, cached', value: `${cached.toFixed(2)} ms`, note: `${(uncached / cached).toFixed(0)} × faster than rendering` },
-    { name: '3-series chart (3 × 361 points), uncached', value: `${threeUncached.toFixed(1)} ms` },
-    { name: 'to-scale drawing (SVG)', value: `${drawingTime.toFixed(2)} ms` },
-    { name: 'package without charts (one linkage, one drawing)', value: `${without.toFixed(1)} ms` },
-    { name: 'same package with six charts, charts cached', value: `${withCached.toFixed(1)} ms`, note: `${(withCached / without).toFixed(2)} × without (target ≤ 2 ×)` },
-    { name: 'same package with six charts, none cached', value: `${withUncached.toFixed(1)} ms`, note: `${(withUncached / without).toFixed(2)} × without` },
+  record('Charts and drawings', [
+    { name: '361-point line chart, first render in process', value: first, unit: 'ms', note: 'includes loading vega and vega-lite' },
+    { name: '361-point line chart, uncached', value: uncached, unit: 'ms' },
+    { name: '361-point line chart, cached', value: cached, unit: 'ms', ratio: { value: uncached / cached, of: '× faster than rendering', better: 'higher' } },
+    { name: '3-series chart (3 × 361 points), uncached', value: threeUncached, unit: 'ms' },
+    { name: 'to-scale drawing (SVG)', value: drawingTime, unit: 'ms' },
+    { name: 'package without charts (one linkage, one drawing)', value: without, unit: 'ms' },
+    { name: 'same package with six charts, charts cached', value: withCached, unit: 'ms', ratio: { value: withCached / without, of: '× the package without them', better: 'lower', target: 2 } },
+    { name: 'same package with six charts, none cached', value: withUncached, unit: 'ms', ratio: { value: withUncached / without, of: '× the package without them', better: 'lower' } },
   ])
 }

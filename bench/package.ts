@@ -13,7 +13,7 @@ import { unified } from 'unified'
 import { VFile } from 'vfile'
 import { buildNote } from '../src/build.js'
 import { TOOL } from '../src/version.js'
-import { median, printTable } from './measure.js'
+import { median, record } from './measure.js'
 
 const root = process.cwd()
 // Charts and drawings are measured on their own (bench/figures.ts): this is the calculation layer's price.
@@ -58,13 +58,13 @@ export async function runPackageBench(): Promise<void> {
   const bare = mid(bareTimes)
   const node = await median(() => wall(process.execPath, ['-e', '0']), 7, 1)
   const check = await median(() => wall(process.execPath, ['bin/linkwright.js', 'check', 'reports/sieve-rocker.md']), 7, 1)
-  printTable('Package build (the 2 demo notes without their charts and drawings, HTML only, in process)', [
-    { name: 'plain unified pipeline (blocks left as code)', value: `${bare.toFixed(2)} ms` },
-    { name: 'linkwright HTML build, first in process', value: `${cold.toFixed(1)} ms`, note: `${(cold / bare).toFixed(1)} × plain (includes first-use costs)` },
-    { name: 'linkwright HTML build, warm', value: `${warm.toFixed(1)} ms`, note: `${(warm / bare).toFixed(1)} × plain (target ≤ 4 ×)` },
+  record('Package build (the demo notes without their charts and drawings, HTML only, in process)', [
+    { name: 'plain unified pipeline (blocks left as code)', value: bare, unit: 'ms' },
+    { name: 'linkwright HTML build, first in process', value: cold, unit: 'ms', note: 'includes first-use costs', ratio: { value: cold / bare, of: '× the plain pipeline’s time', better: 'lower' } },
+    { name: 'linkwright HTML build, warm', value: warm, unit: 'ms', ratio: { value: warm / bare, of: '× the plain pipeline’s time', better: 'lower', target: 4 } },
   ])
-  printTable('Command-line start-up', [
-    { name: '`node -e 0`', value: `${node.toFixed(0)} ms` },
-    { name: '`linkwright check reports/sieve-rocker.md`', value: `${check.toFixed(0)} ms`, note: `${(check / node).toFixed(1)} × node -e 0 (target ≤ 10 ×)` },
+  record('Command-line start-up', [
+    { name: '`node -e 0`', value: node, unit: 'ms' },
+    { name: '`linkwright check reports/sieve-rocker.md`', value: check, unit: 'ms', ratio: { value: check / node, of: '× `node -e 0`', better: 'lower', target: 10 } },
   ])
 }

@@ -12,12 +12,12 @@ import { printPackages, type PrintJob } from '../src/pdf/print.js'
 import { writeFolder } from '../src/cli/files.js'
 import { katexDist } from '../src/cli/paths.js'
 import { TOOL } from '../src/version.js'
-import { median, printTable } from './measure.js'
+import { median, record } from './measure.js'
 
 export async function runPdfBench(): Promise<void> {
   const browser = findBrowser()
   if (!browser) {
-    printTable('PDF printing', [{ name: 'skipped', value: '—', note: 'no Chromium found (apt-get install chromium)' }])
+    record('PDF printing', [{ name: 'skipped: no Chromium found (apt-get install chromium)', value: Number.NaN, unit: '' }])
     return
   }
   const root = process.cwd()
@@ -52,9 +52,8 @@ export async function runPdfBench(): Promise<void> {
   }
   const one = await median(() => printPackages([jobs[0]!], browser), 3, 1)
   const ten = await median(() => printPackages(jobs, browser), 3, 1)
-  printTable('PDF printing (the carton-pusher package, 15 pages)', [
-    { name: 'one package, its own browser (launch, print, close)', value: `${one.toFixed(0)} ms` },
-    { name: 'ten packages, one shared browser', value: `${ten.toFixed(0)} ms` },
-    { name: 'ratio (ten shared) / (ten × one)', value: (ten / (10 * one)).toFixed(2), note: 'target ≤ 0.4' },
+  record('PDF printing (the carton-pusher package; two printings each, the second with the contents’ page numbers)', [
+    { name: 'one package, its own browser (launch, print, close)', value: one, unit: 'ms' },
+    { name: 'ten packages, one shared browser', value: ten, unit: 'ms', ratio: { value: ten / (10 * one), of: '× ten single runs', better: 'lower', target: 0.4 } },
   ])
 }

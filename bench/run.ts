@@ -1,16 +1,20 @@
 /**
- * `npm run bench`: every benchmark in one process, printed as Markdown tables
- * with ratios measured in the same run.
+ * `npm run bench`: every benchmark in one process, with ratios measured in the
+ * same run. `npm run bench -- core` (package, figures, pdf) runs one;
+ * `-- --json` prints one JSON object instead of Markdown tables.
  */
 import { runCoreBench } from './core.js'
-import { machine } from './measure.js'
+import { json, markdown } from './measure.js'
 import { runPackageBench } from './package.js'
 import { runFiguresBench } from './figures.js'
 import { runPdfBench } from './pdf.js'
 
-const only = process.argv[2]
-console.log(`linkwright benchmarks — ${machine()}`)
-if (!only || only === 'core') await runCoreBench()
-if (!only || only === 'package') await runPackageBench()
-if (!only || only === 'figures') await runFiguresBench()
-if (!only || only === 'pdf') await runPdfBench()
+const args = process.argv.slice(2)
+const asJson = args.includes('--json')
+const only = args.filter((a) => !a.startsWith('--'))
+const wanted = (name: string) => only.length === 0 || only.includes(name)
+if (wanted('core')) await runCoreBench()
+if (wanted('package')) await runPackageBench()
+if (wanted('figures')) await runFiguresBench()
+if (wanted('pdf')) await runPdfBench()
+process.stdout.write(asJson ? json() : markdown())

@@ -14,7 +14,6 @@ import {
   ROD_ANGLE,
   SLIDER_CRANK_STATE,
   TRANSMISSION,
-  rodObliquity,
   sliderCrankState,
   type SliderCrankLinkage,
 } from './slider-crank.js'
@@ -107,18 +106,23 @@ export class SliderCrankSweep {
     const rodAngularAcceleration = this.rodAngularAcceleration
     const transmissionAngle = this.transmissionAngle
     const omega2 = omega * omega
+    const inverse = omega === 0 ? Number.NaN : 1 / omega
+    const rotation = linkage.rotation
+    const fromPlusX = linkage.sliderSide === 1
     // One crank angle per step: state by closed form, then scale by ω and α.
     for (let i = 0; i < count; i++) {
       const theta = crankAngle[i]!
       sliderCrankState(linkage, theta, state)
       const dx = state[DX]!
       const dphi = state[DPHI]!
+      const phi = state[ROD_ANGLE]!
       const travel = theta - origin
-      time[i] = omega === 0 ? Number.NaN : (wrap ? wrapTurn(linkage.rotation * travel) * linkage.rotation : travel) / omega
+      time[i] = (wrap ? wrapTurn(rotation * travel) * rotation : travel) * inverse
       position[i] = state[POSITION]!
       velocity[i] = dx * omega
       acceleration[i] = state[DDX]! * omega2 + dx * alpha
-      rodAngle[i] = rodObliquity(linkage, state[ROD_ANGLE]!)
+      // The rod's obliquity (see rodObliquity), inline: φ from atan2 is within a half turn already.
+      rodAngle[i] = fromPlusX ? phi : phi > 0 ? phi - Math.PI : phi + Math.PI
       rodAngularVelocity[i] = dphi * omega
       rodAngularAcceleration[i] = state[DDPHI]! * omega2 + dphi * alpha
       transmissionAngle[i] = state[TRANSMISSION]!

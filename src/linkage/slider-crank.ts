@@ -187,7 +187,9 @@ export function rodAngle(crank: number, rod: number, offset: number, side: numbe
  * the +x side, from −x for one on the −x side.
  */
 export function rodObliquity(linkage: SliderCrankLinkage, phi: number): number {
-  return wrapHalfTurn(linkage.sliderSide === 1 ? phi : phi - Math.PI)
+  // φ comes from atan2, in (−π, π]: from +x it is already the obliquity; from −x it is a half turn off.
+  if (linkage.sliderSide === 1) return phi
+  return phi > 0 ? phi - Math.PI : phi + Math.PI
 }
 
 /** Indices into the state written by {@link sliderCrankState}. */

@@ -56,3 +56,22 @@ export { FourBarSweep } from './four-bar-sweep.js'
 export { eccentric, type EccentricInput, type EccentricLinkage } from './eccentric.js'
 export { findExtreme, extremesOf, inRange, type Extremes } from './extremes.js'
 export { synthesiseSliderCrank, type SliderCrankSynthesis } from './synthesis.js'
+export { constantLoad, interpolate, loadTable, sliderLoadForce, NO_LOAD, type Load, type LoadAbscissa, type LoadSense, type LoadStroke } from './loads.js'
+export {
+  F,
+  FORCE_STATE,
+  MASSLESS,
+  SliderCrankForceSweep,
+  checkMasses,
+  sliderCrankForceState,
+  type SliderCrankForceInput,
+  type SliderCrankMasses,
+  type StrokeTiming,
+} from './slider-crank-forces.js'
+export { analyseSliderCrankForces, SLIDER_CRANK_FORCE_MEASURES, type SliderCrankForceAnalysis, type ForceMeasure } from './slider-crank-force-analysis.js'
+export { FB, FOUR_BAR_FORCE_STATE, FourBarForceSweep, checkFourBarMasses, fourBarForceState, type FourBarForceInput, type FourBarMasses } from './four-bar-forces.js'
+export { energyFluctuation, flywheelDesign, flywheelInertia, speedFluctuation, type EnergyFluctuation, type FlywheelDesign, type FlywheelForm } from './flywheel.js'
+export { column, sectionProperties, type ColumnPlane, type ColumnResult, type ColumnSection, type SectionProperties } from './column.js'
+export { bearingPressure, slidingSpeed } from './bearing.js'
+export { harmonic, integrate, mean, rms } from './cycle.js'
+export { arcSliderForceInput } from './arc-slider-forces.js'

@@ -31,6 +31,8 @@ export interface BodyEntry {
   /** The source after `;`, trimmed, or null. */
   readonly source: string | null
   readonly sourcePlace: Position | null
+  /** The deeper-indented lines below it, one by one (a table written in the block), each with its place. */
+  readonly rows: readonly { readonly text: string; readonly place: Position }[]
 }
 
 /** One `- text` list item (or `- {text: …, verify: yes}`). */
@@ -59,6 +61,7 @@ interface OpenEntry {
   name: Part
   value: Part
   source: Part | null
+  rows: Part[]
 }
 
 interface OpenItem {
@@ -87,6 +90,7 @@ export function readBody(text: string, origin: BodyOrigin): Body {
         valuePlace: entry.value.text === '' ? at(entry.name) : at(entry.value),
         source: entry.source && entry.source.text !== '' ? entry.source.text : null,
         sourcePlace: entry.source && entry.source.text !== '' ? at(entry.source) : null,
+        rows: entry.rows.map((row) => ({ text: row.text, place: at(row) })),
       })
     }
     if (item) {
@@ -106,8 +110,10 @@ export function readBody(text: string, origin: BodyOrigin): Body {
     const open: OpenEntry | OpenItem | null = entry ?? item
     if (open && indent > open.indent) {
       const part: Part = { text: content, line: index, start: indent, end: line.length }
-      if (entry) extend(entry.source ?? entry.value, part)
-      else if (item) extend(item.text, part)
+      if (entry) {
+        entry.rows.push({ ...part })
+        extend(entry.source ?? entry.value, part)
+      } else if (item) extend(item.text, part)
       return
     }
     close()
@@ -145,7 +151,7 @@ export function readBody(text: string, origin: BodyOrigin): Body {
       const sourceStart = colon + 2 + cut + (sourceText.length - sourceText.trimStart().length)
       source = { text: sourceText.trim(), line: index, start: sourceStart, end: sourceStart + sourceText.trim().length }
     }
-    entry = { indent, name: { text: name, line: index, start: indent, end: indent + name.length }, value, source }
+    entry = { indent, name: { text: name, line: index, start: indent, end: indent + name.length }, value, source, rows: [] }
   })
   close()
   return { entries, items, problems }

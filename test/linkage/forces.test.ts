@@ -20,6 +20,7 @@ import {
   analyseSliderCrankForces,
   arcSliderForceInput,
   constantLoad,
+  fourBar,
   fourBarForceState,
   loadTable,
   sliderCrank,
@@ -282,3 +283,68 @@ describe('property tests', () => {
     }
   })
 })
+
+describe('four-bar kinetostatics against the power balance (virtual work)', () => {
+  // T2·ω2 = d(KE)/dt + d(PE)/dt − T4·ω4 at every input angle, with the links' positions from an
+  // independent circle intersection here and their velocities from central differences.
+  const [d, a, b, c] = [0.1, 0.04, 0.12, 0.08]
+  const masses = { input: 0.5, inputCentre: 0.02, inputInertia: 0.0004, coupler: 0.9, couplerCentre: 0.05, couplerCentreAngle: 0.3, couplerInertia: 0.0015, output: 0.7, outputCentre: 0.035, outputInertia: 0.0011 }
+  const linkage = fourBarOf(d, a, b, c)
+  const load = constantLoad(2.5, 'against-motion')
+  const input = { masses, outputLoad: load, outputLoadSense: 1 as const, gravity: [0, -9.81] as [number, number] }
+  const omega = 30
+  const pose = (t: number) => {
+    const ax = a * Math.cos(t)
+    const ay = a * Math.sin(t)
+    const dx = d - ax
+    const dy = -ay
+    const r = Math.hypot(dx, dy)
+    // Open circuit: B to the left of A→O4 (the core's sign convention for γ = 0).
+    const along = (b * b - c * c + r * r) / (2 * r)
+    const h = Math.sqrt(b * b - along * along)
+    const bx = ax + (along * dx - h * dy) / r
+    const by = ay + (along * dy + h * dx) / r
+    const t3 = Math.atan2(by - ay, bx - ax)
+    const t4 = Math.atan2(by, bx - d)
+    const g3 = t3 + masses.couplerCentreAngle
+    return { t3, t4, g2: [masses.inputCentre * Math.cos(t), masses.inputCentre * Math.sin(t)], g3: [ax + masses.couplerCentre * Math.cos(g3), ay + masses.couplerCentre * Math.sin(g3)], g4: [d + masses.outputCentre * Math.cos(t4), masses.outputCentre * Math.sin(t4)] }
+  }
+  const unwrap = (x: number) => Math.atan2(Math.sin(x), Math.cos(x))
+
+  it('should balance the input’s power with the links’ energy rates and the output load’s power', () => {
+    const kin = new Float64Array(FOUR_BAR_STATE)
+    const out = new Float64Array(FOUR_BAR_FORCE_STATE)
+    const h = 1e-5
+    const kinetic = (t: number) => {
+      const [p, q] = [pose(t - h), pose(t + h)]
+      const v = (i: 'g2' | 'g3' | 'g4', k: 0 | 1) => ((q[i][k]! - p[i][k]!) / (2 * h)) * omega
+      const w3 = (unwrap(q.t3 - p.t3) / (2 * h)) * omega
+      const w4 = (unwrap(q.t4 - p.t4) / (2 * h)) * omega
+      return (
+        0.5 * masses.inputInertia * omega * omega +
+        0.5 * masses.coupler * (v('g3', 0) ** 2 + v('g3', 1) ** 2) +
+        0.5 * masses.couplerInertia * w3 * w3 +
+        0.5 * masses.outputInertia * w4 * w4
+      )
+    }
+    const potential = (t: number) => {
+      const p = pose(t)
+      return 9.81 * (masses.input * p.g2[1]! + masses.coupler * p.g3[1]! + masses.output * p.g4[1]!)
+    }
+    for (let i = 0; i < 24; i++) {
+      const t = rad(3 + i * 15)
+      fourBarForceState(linkage, input, t, omega, 0, kin, out)
+      const dKE = (kinetic(t + 1e-4) - kinetic(t - 1e-4)) / 2e-4
+      const dPE = (potential(t + 1e-4) - potential(t - 1e-4)) / 2e-4
+      const w4 = unwrap(pose(t + 1e-6).t4 - pose(t - 1e-6).t4) / 2e-6
+      const expected = dKE + dPE - out[FB.LOAD_TORQUE]! * w4
+      expectClose(out[FB.TORQUE]!, expected, { rel: 1e-5, abs: 1e-5 }, `T2(${3 + i * 15}°)`)
+      // The load torque opposes the output's motion.
+      expect(out[FB.LOAD_TORQUE]! * w4).toBeLessThanOrEqual(0)
+    }
+  })
+})
+
+function fourBarOf(ground: number, input: number, coupler: number, output: number) {
+  return fourBar({ ground, input, coupler, output })
+}

@@ -4,6 +4,7 @@
  * results document. No file I/O here: the CLI reads and writes.
  */
 import type { VFile } from 'vfile'
+import type { DataReader } from './notes/block-kinds/kind.js'
 import { readNote, type NoteModel, type Tool } from './notes/note.js'
 import { hasErrors } from './notes/report.js'
 import { resultsDocument } from './notes/results-json.js'
@@ -21,6 +22,8 @@ export interface BuildNoteOptions {
   readonly commit: string
   /** Date of the note's last commit, asked for only when the front matter says `date: git`. */
   readonly gitDate?: (() => string | null) | null
+  /** Reads the data files the note names (load tables). */
+  readonly readData?: DataReader | null
   /** Where rendered charts are kept between builds. */
   readonly chartCache?: ChartCache | null
 }
@@ -41,7 +44,7 @@ export interface BuiltNote {
 /** Evaluate and render a note. Never throws on a bad note: problems are messages on `file`. */
 export async function buildNote(file: VFile, options: BuildNoteOptions): Promise<BuiltNote> {
   // 1. Read and evaluate (the notes layer).
-  const { tree, model } = readNote(file, options.tool, { gitDate: options.gitDate ?? null })
+  const { tree, model } = readNote(file, options.tool, { gitDate: options.gitDate ?? null, readData: options.readData ?? null })
   const date = model.date
   const results = resultsDocument(model, file, options.notePath, date)
   if (hasErrors(file)) return { model, html: null, results, files: new Map(), ok: false, date, charts: { rendered: 0, cached: 0 } }

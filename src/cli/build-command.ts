@@ -20,6 +20,7 @@ import { statusWords } from '../render/sections.js'
 import { tallyChecks, tallyWords } from '../notes/tally.js'
 import { COMMIT, TOOL } from '../version.js'
 import { findNotes, packageFolder, stageFolder, writeFileAtomic, type StagedFolder } from './files.js'
+import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
 import { katexDist, templatePath } from './paths.js'
 import { report } from './reporter.js'
@@ -103,7 +104,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     files.push(file)
     const folder = packageFolder(options.out, path, baseOf.get(path) ?? '.')
     try {
-      const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), chartCache: cache })
+      const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
       if (!built.ok || built.html === null) {
         failed = true
         if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)

@@ -11,6 +11,7 @@ import { readNote } from '../notes/note.js'
 import { failuresFirst, tallyChecks, tallyWords } from '../notes/tally.js'
 import { TOOL } from '../version.js'
 import { findNotes } from './files.js'
+import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
 import { report } from './reporter.js'
 
@@ -32,7 +33,7 @@ export function checkCommand(options: CheckOptions, out: (text: string) => void,
   const files: VFile[] = []
   for (const path of notes) {
     const file = new VFile({ path: relative(process.cwd(), path) || path, value: readFileSync(path, 'utf8') })
-    const { model } = readNote(file, TOOL, { gitDate: () => gitDate(path) })
+    const { model } = readNote(file, TOOL, { gitDate: () => gitDate(path), readData: dataReader(path) })
     files.push(file)
     if (file.messages.some((m) => m.fatal === true)) failed = true
     const tally = tallyChecks(model.checks)

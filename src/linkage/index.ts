@@ -70,6 +70,7 @@ export {
 } from './slider-crank-forces.js'
 export { analyseSliderCrankForces, SLIDER_CRANK_FORCE_MEASURES, type SliderCrankForceAnalysis, type ForceMeasure } from './slider-crank-force-analysis.js'
 export { FB, FOUR_BAR_FORCE_STATE, FourBarForceSweep, checkFourBarMasses, fourBarForceState, type FourBarForceInput, type FourBarMasses } from './four-bar-forces.js'
+export { analyseFourBarForces, FOUR_BAR_FORCE_MEASURES, type FourBarForceAnalysis, type FourBarForceMeasure } from './four-bar-force-analysis.js'
 export { energyFluctuation, flywheelDesign, flywheelInertia, speedFluctuation, type EnergyFluctuation, type FlywheelDesign, type FlywheelForm } from './flywheel.js'
 export { column, sectionProperties, type ColumnPlane, type ColumnResult, type ColumnSection, type SectionProperties } from './column.js'
 export { bearingPressure, slidingSpeed } from './bearing.js'

@@ -8,8 +8,9 @@
  *     - {text: …, verify: yes}      an item with fields
  *     # …                           a comment line
  *
- * A line indented deeper than the entry or item above it continues it. Every
- * part keeps its place in the note.
+ * A line indented deeper than the entry or item above it continues it (under
+ * `name: table ; source` such lines are the table's rows). Every part keeps its
+ * place in the note.
  */
 import type { Position } from 'unist'
 
@@ -112,7 +113,8 @@ export function readBody(text: string, origin: BodyOrigin): Body {
       const part: Part = { text: content, line: index, start: indent, end: line.length }
       if (entry) {
         entry.rows.push({ ...part })
-        extend(entry.source ?? entry.value, part)
+        // Below `name: table` the lines are the table's rows; elsewhere they continue a long value or source.
+        if (entry.value.text !== 'table') extend(entry.source ?? entry.value, part)
       } else if (item) extend(item.text, part)
       return
     }

@@ -4,6 +4,7 @@
  */
 import type { VFile } from 'vfile'
 import { blockKinds, type BlockOutcome, type EvaluationContext } from './block-kinds/index.js'
+import type { DataReader } from './block-kinds/kind.js'
 import { createScope } from './expressions.js'
 import { messages } from './messages.js'
 import { dependencyOrder } from './order.js'
@@ -17,7 +18,7 @@ export interface Evaluation {
 }
 
 /** Evaluate blocks (in document order as given) for a note's settings. */
-export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, file: VFile): Evaluation {
+export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, file: VFile, readData: DataReader | null = null): Evaluation {
   const context: EvaluationContext = {
     file,
     meta,
@@ -25,6 +26,8 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
     blockIds: new Set(blocks.flatMap((b) => (b.id ? [b.id] : []))),
     outcomes: new Map(),
     citations: [],
+    readData,
+    dataFiles: [],
   }
   // Blocks without an id still take part: give them a key no expression can name.
   const keyOf = (block: CalcBlock): string => block.id ?? `#${block.index}`

@@ -49,6 +49,11 @@ export const messages = {
   'drawing-syntax': (detail: string) => `Cannot build the drawing: ${detail}`,
   'unknown-quantity': (name: string, kind: string, known: readonly string[]) =>
     `Unexpected quantity \`${name}\` for a ${kind}, expected one of ${list(known)}`,
+  'load-table': (detail: string) => `Cannot read the load table: ${detail}`,
+  'data-file': (path: string, detail: string) => `Cannot read the data file \`${path}\`: ${detail}`,
+  'wrong-block': (id: string, expected: string) => `Unexpected block \`${id}\`: expected ${expected}`,
+  'column-slenderness': (detail: string) => detail,
+  'dynamics-warning': (detail: string) => detail,
   'linkage-error': (detail: string) => detail,
   'linkage-warning': (detail: string) => detail,
   'transmission-angle-low': (value: string, at: string, limit: string) =>

@@ -20,7 +20,7 @@ import { unified } from 'unified'
 import type { Position } from 'unist'
 import { visit } from 'unist-util-visit'
 import type { VFile } from 'vfile'
-import type { Assumption, BlockOutcome, CheckOutcome, Citation } from './block-kinds/kind.js'
+import type { Assumption, BlockOutcome, CheckOutcome, Citation, DataFile, DataReader } from './block-kinds/kind.js'
 import { findBlocks } from './blocks.js'
 import { evaluateBlocks } from './evaluate.js'
 import { readFrontMatter } from './front-matter.js'
@@ -65,6 +65,8 @@ export interface NumberedReference {
 export interface ReadOptions {
   /** Date of the note's last commit (YYYY-MM-DD), asked for only when the front matter says `date: git`. */
   readonly gitDate?: (() => string | null) | null
+  /** Reads the data files a note names (load tables), relative to the note, refusing paths that leave the design repository. */
+  readonly readData?: DataReader | null
 }
 
 /** Everything the package shows, in document order. */
@@ -79,7 +81,9 @@ export interface NoteModel {
   /** The note's own conclusions, in document order, with the block each came from. */
   readonly conclusions: readonly { readonly text: string; readonly line: number }[]
   readonly references: readonly NumberedReference[]
-  /** sha-256 of the tool name, version and note text (hex). */
+  /** Data files the note read, with their digests (they are part of the fingerprint). */
+  readonly dataFiles: readonly DataFile[]
+  /** sha-256 of the tool name, version, note text and the data files' digests (hex). */
   readonly fingerprint: string
   readonly tool: Tool
 }
@@ -103,7 +107,7 @@ export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null):
   // 2. Blocks, evaluated in dependency order.
   const found = findBlocks(tree, file)
   const blocks = found.map((f) => f.block)
-  const { outcomes, context } = evaluateBlocks(blocks, meta, file)
+  const { outcomes, context } = evaluateBlocks(blocks, meta, file, options?.readData ?? null)
   // 3. Prose: values and citations (depends on every block's values).
   resolveProse(tree, context)
   flagRemoteResources(tree, file)
@@ -123,7 +127,8 @@ export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null):
     assumptions: gatherAssumptions(outcomes),
     conclusions: outcomes.flatMap((o) => (o ? o.conclusions.map((text) => ({ text, line: o.block.place.start.line })) : [])),
     references: numberReferences(meta, blocks, outcomes, context.citations),
-    fingerprint: fingerprint(tool, String(file.value)),
+    dataFiles: context.dataFiles,
+    fingerprint: fingerprint(tool, String(file.value), context.dataFiles),
     tool,
   }
   return { tree, model }
@@ -134,17 +139,23 @@ export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null):
  * note's text (line endings normalised), so a signed package is tied to exactly
  * what was computed.
  */
-export function fingerprint(tool: Tool, source: string): string {
-  const canonical = JSON.stringify({ tool: tool.name, version: tool.version, note: source.replace(/\r\n?/g, '\n') })
+export function fingerprint(tool: Tool, source: string, dataFiles: readonly DataFile[] = []): string {
+  const note = source.replace(/\r\n?/g, '\n')
+  // The data files a note reads are part of what was computed: their digests join the fingerprint.
+  const canonical = dataFiles.length === 0
+    ? JSON.stringify({ tool: tool.name, version: tool.version, note })
+    : JSON.stringify({ tool: tool.name, version: tool.version, note, data: dataFiles.map((f) => [f.path, f.sha256]) })
   return createHash('sha256').update(canonical).digest('hex')
 }
 
 function gatherAssumptions(outcomes: readonly (BlockOutcome | null)[]): Assumption[] {
   const own = outcomes.flatMap((o) => (o?.block.kind === 'assumptions' ? o.assumptions : []))
   const method = new Map<string, Assumption>()
+  const covered = new Set(outcomes.flatMap((o) => o?.covers ?? []))
   for (const o of outcomes) {
     if (!o || o.block.kind === 'assumptions') continue
     for (const a of o.assumptions) {
+      if (a.droppedWith && covered.has(a.droppedWith)) continue
       const seen = method.get(a.text)
       method.set(a.text, seen ? { ...seen, from: `${seen.from}, ${a.from}` } : a)
     }

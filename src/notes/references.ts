@@ -13,4 +13,8 @@ export const builtinReferences: ReadonlyMap<string, string> = new Map([
     'lw-transmission',
     'S. S. Balli, S. Chand, “Transmission angle in mechanisms”, Mechanism and Machine Theory 37, 2002, pp. 175–195 (survey; the transmission angle as a design criterion goes back to H. Alt, 1932).',
   ],
+  [
+    'lw-column',
+    'R. G. Budynas, J. K. Nisbett, Shigley’s Mechanical Engineering Design, 9th ed., McGraw-Hill, 2011, §4-12 and §4-13, Eqs. (4-45) and (4-46) (Euler and Johnson critical loads, the tangent point at S_y/2).',
+  ],
 ])

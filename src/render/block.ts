@@ -33,6 +33,7 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   }
   const parts: (Element | null)[] = [heading]
   if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, block.kind === 'given' ? 'Design inputs' : 'Inputs'))
+  for (const data of outcome.data) parts.push(dataTable(data, context))
   if (outcome.method.length > 0) parts.push(methodList(outcome, context))
   if (outcome.results.length > 0) parts.push(resultsTable(outcome.results, context))
   if (outcome.extremes.length > 0) parts.push(extremesTable(outcome, context))
@@ -110,6 +111,19 @@ function inputsTable(inputs: readonly InputValue[], context: RenderContext, capt
       return [symbolCell(input.symbol), input.label, value, unit, source]
     }),
   )
+}
+
+/** A table of data the block read (a load table), with its source. */
+function dataTable(data: BlockOutcome['data'][number], context: RenderContext): Element {
+  return h('div.lw-data', [
+    table(
+      'lw-data-table',
+      data.caption,
+      data.columns.map((c) => (c.unit ? `${c.label} (${c.unit})` : c.label)),
+      data.rows.map((row) => row.map((cell) => h('span.lw-number', cell.replace(/^-/, '−')))),
+    ),
+    h('p.lw-step-note', ['Source: ', ...(data.source ? withCitations(data.source, context.references) : [h('span.lw-missing-source', 'no source given')])]),
+  ])
 }
 
 function text(value: string): ElementContent {

@@ -164,6 +164,20 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
       encoding: { y: { field: 'y', type: 'quantitative' } },
     })
   }
+  const means = chart.means.filter((m) => series.some((s) => s.name === m.series))
+  if (means.length > 0) {
+    const rows = means.map((m) => ({ y: round(m.value), text: m.text }))
+    layers.push({
+      data: { values: rows },
+      mark: { type: 'rule', color: MARKER_COLOR, strokeDash: [2, 2], strokeWidth: 1 },
+      encoding: { y: { field: 'y', type: 'quantitative' } },
+    })
+    layers.push({
+      data: { values: rows.map((r) => ({ ...r, x: round(x1) })) },
+      mark: { type: 'text', align: 'right', baseline: 'bottom', dx: -4, dy: -3, fontSize: 9, color: MARKER_COLOR, font: FONT },
+      encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
+    })
+  }
   let width = chart.width
   let height = chart.height
   if (chart.equalAspect) {

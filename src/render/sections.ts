@@ -73,7 +73,8 @@ const TOPICS: readonly { topic: Topic; covered: string; excluded: string }[] = [
   { topic: 'synthesis', covered: 'synthesis of link lengths for the stated requirements', excluded: '' },
   { topic: 'forces', covered: 'forces, crank torque and drive power from the stated loads and masses', excluded: 'Forces, crank torque, drive power and motor size.' },
   { topic: 'flywheel', covered: 'the flywheel for a stated speed fluctuation', excluded: 'Flywheel sizing and speed fluctuation.' },
-  { topic: 'strength', covered: 'rod buckling and pin bearing pressures', excluded: 'Strength of the parts: rod buckling, pin and bearing pressures, stresses.' },
+  { topic: 'buckling', covered: 'the connecting rod as a column (buckling)', excluded: 'Buckling of the connecting rod.' },
+  { topic: 'bearings', covered: 'pin bearing pressure, sliding speed and pV', excluded: 'Pin bearing pressures and pV.' },
   { topic: 'tolerances', covered: 'the effect of the stated tolerances', excluded: 'The effect of manufacturing tolerances.' },
   { topic: 'clearances', covered: 'the effect of pin clearances', excluded: 'Pin clearances and wear.' },
   { topic: 'study', covered: 'parameter studies over the stated ranges', excluded: '' },
@@ -81,7 +82,7 @@ const TOPICS: readonly { topic: Topic; covered: string; excluded: string }[] = [
 
 /** Left out of every package: what the tool does not calculate at all. */
 const ALWAYS_EXCLUDED = [
-  'Fatigue life, and elastic deflection, vibration and the dynamics of the drive train.',
+  'Stresses in the parts and their fatigue life; elastic deflection, vibration and the dynamics of the drive train.',
   'Lubrication, heating and wear.',
   'Guarding, safety functions and the machine’s risk assessment.',
   'Compliance with any code or standard: none is claimed.',

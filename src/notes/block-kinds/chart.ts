@@ -8,6 +8,7 @@
  *     of: pusher
  *     series: velocity, acceleration
  *     at_most: ±6 m/s^2        (a limit on the series of that kind; ± for both signs)
+ *     mean: yes                (each series' mean over the cycle as a line: a torque's mean)
  */
 import { displayUnit, formatNumber, unitLabel } from '../display.js'
 import { evaluateText } from '../expressions.js'
@@ -18,7 +19,7 @@ import { toCore, toDisplay } from './angles.js'
 import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type ChartOutcome, type ChartSeries, type SweepSource } from './kind.js'
 
-const KNOWN = ['of', 'series', 'x', 'layout', 'at_least', 'at_most', 'size', 'x_range', 'y_range', 'samples']
+const KNOWN = ['of', 'series', 'x', 'layout', 'at_least', 'at_most', 'size', 'x_range', 'y_range', 'samples', 'mean']
 
 export const chartKind: BlockKind = {
   name: 'chart',
@@ -104,6 +105,22 @@ export const chartKind: BlockKind = {
     const yRange = readRange(entries.get('y_range')?.value, series[0]!.kind, context)
     if (xRange === undefined) return fail('expected `x_range:` as two quantities, e.g. `0 deg, 360 deg`', entries.get('x_range')?.valuePlace)
     if (yRange === undefined) return fail('expected `y_range:` as two quantities of the first series’ kind', entries.get('y_range')?.valuePlace)
+    const meanEntry = entries.get('mean')
+    if (meanEntry && meanEntry.value !== 'yes' && meanEntry.value !== 'no') {
+      reportError(file, 'invalid-choice', messages['invalid-choice']('mean', meanEntry.value, ['yes', 'no']), meanEntry.valuePlace)
+      return null
+    }
+    if (meanEntry?.value === 'yes' && !(isAngle && source.fullTurn)) return fail('`mean: yes` needs the crank angle as x over a full turn', meanEntry.valuePlace)
+    // Evenly spaced over whole turns: the mean of all samples but the last (which repeats the first).
+    const means =
+      meanEntry?.value === 'yes'
+        ? series.map((s) => {
+            let sum = 0
+            for (let i = 0; i < s.values.length - 1; i++) sum += s.values[i]!
+            const value = sum / (s.values.length - 1)
+            return { series: s.name, value, text: `mean ${formatNumber(value, meta.digits)}${s.unit === '°' ? '°' : ` ${s.unit}`}` }
+          })
+        : []
     const markers = isAngle || xName === 'time' ? chartMarkers(source, xName === 'time', speed, meta.units) : []
     const peaks = isAngle || xName === 'time' || xAxis.kind === 'length' ? chartPeaks(source, names, isAngle, xAxis, speed, meta.units, meta.digits) : []
     const chart: ChartOutcome = {
@@ -116,12 +133,14 @@ export const chartKind: BlockKind = {
       limit,
       peaks,
       unbounded: names.filter((n) => source.unboundedAtEnds.has(n)),
+      means,
       angles: isAngle ? source.convention.words : null,
       width: size[0],
       height: size[1],
       xRange: xRange ?? (isAngle ? [xAxis.values[0]!, xAxis.values[xAxis.values.length - 1]!] : null),
       yRange,
-      equalAspect: !isAngle && xAxis.kind === 'length' && series.length === 1 && series[0]!.kind === 'length',
+      // A path drawn to scale, or a polar load diagram (force against force).
+      equalAspect: !isAngle && (xAxis.kind === 'length' || xAxis.kind === 'force') && series.length === 1 && series[0]!.kind === xAxis.kind,
       samples,
     }
     return outcome(block, 'Chart', { chart })

@@ -83,6 +83,7 @@ export const eccentricKind: BlockKind = {
       summary: ['sheave_wall', ...summaryNames(analysis)],
       extremes,
       sweep: view.source,
+      core: { type: 'slider-crank', analysis },
     })
   },
 }

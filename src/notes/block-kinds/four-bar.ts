@@ -72,6 +72,7 @@ export const fourBarKind: BlockKind = {
         ? ['grashof_label', 'transmission_angle_worst', 'output_swing', 'time_ratio', 'output_angular_velocity_abs_max', ...drive]
         : ['grashof_label', 'transmission_angle_worst', 'output_turns_fully', 'output_angular_velocity_abs_max', ...drive],
       sweep: source,
+      core: { type: 'four-bar', analysis },
     })
   },
 }

@@ -8,6 +8,10 @@ import { conclusionsKind } from './conclusions.js'
 import { drawingKind } from './drawing.js'
 import { checksKind } from './checks.js'
 import { eccentricKind } from './eccentric.js'
+import { columnKind } from './column.js'
+import { flywheelKind } from './flywheel.js'
+import { forcesKind } from './forces.js'
+import { pinBearingKind } from './pin-bearing.js'
 import { fourBarKind } from './four-bar.js'
 import { designInputsKind } from './design-inputs.js'
 import type { BlockKind } from './kind.js'
@@ -17,7 +21,7 @@ import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
+  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, forcesKind, flywheelKind, columnKind, pinBearingKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

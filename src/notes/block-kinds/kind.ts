@@ -3,7 +3,7 @@
  * evaluates into an outcome the package renders. One file per kind.
  */
 import type { VFile } from 'vfile'
-import type { Extremes } from '../../linkage/index.js'
+import type { Extremes, FourBarAnalysis, SliderCrankAnalysis } from '../../linkage/index.js'
 import type { ExtremesRow } from './extremes.js'
 import type { Scope } from '../expressions.js'
 import type { QuantityKind } from '../quantity.js'
@@ -20,7 +20,25 @@ export interface EvaluationContext {
   readonly outcomes: Map<string, BlockOutcome>
   /** Reference keys cited, with where (ordered into document order later). */
   readonly citations: Citation[]
+  /** Reads a data file the note names (a load table), or null when the caller gives no files. */
+  readonly readData: DataReader | null
+  /** Data files read, with their digests, for the package and its fingerprint. */
+  readonly dataFiles: DataFile[]
 }
+
+/** A data file a note read, identified by its digest. */
+export interface DataFile {
+  /** Path as written in the note (relative to the note). */
+  readonly path: string
+  /** sha-256 of its bytes, hex. */
+  readonly sha256: string
+}
+
+/** What reading a data file gave: its text, or why not (outside the design repository, missing). */
+export type DataRead = { readonly ok: true; readonly text: string; readonly sha256: string } | { readonly ok: false; readonly reason: string }
+
+/** Reads a file named by a note, relative to the note; refuses paths that leave the design repository. */
+export type DataReader = (path: string) => DataRead
 
 /** A reference key cited at a place in the note. */
 export interface Citation {
@@ -181,6 +199,8 @@ export interface ChartOutcome {
   readonly peaks: readonly { readonly series: string; readonly x: number; readonly y: number; readonly side: 'above' | 'below'; readonly text: string }[]
   /** Series that grow without bound at the range's ends: their axis is cut to the interior. */
   readonly unbounded: readonly string[]
+  /** Each series' mean over the cycle, drawn as a line (display units), when asked for. */
+  readonly means: readonly { readonly series: string; readonly value: number; readonly text: string }[]
   /** How the x axis's crank angle is measured, when x is an angle; for the caption. */
   readonly angles: string | null
   readonly width: number
@@ -245,10 +265,56 @@ export interface Assumption {
   readonly verify: boolean
   /** Block id or kind it came from, or null for the note's own. */
   readonly from: string | null
+  /** Left out of the package when a block covers this topic (the kinematics-only line where forces are found). */
+  readonly droppedWith?: Topic
+}
+
+/** A table of data a block read (a load table), printed with its inputs. */
+export interface DataTable {
+  readonly caption: string
+  readonly columns: readonly { readonly label: string; readonly unit: string }[]
+  /** Cells as printed, one count of decimals per column. */
+  readonly rows: readonly (readonly string[])[]
+  readonly source: string | null
+}
+
+/** The core analysis behind a block, for the blocks that build on it (forces on a linkage, a flywheel on forces). */
+export type CoreHandle =
+  | { readonly type: 'slider-crank'; readonly analysis: SliderCrankAnalysis }
+  | { readonly type: 'four-bar'; readonly analysis: FourBarAnalysis }
+  | { readonly type: 'forces'; readonly cycle: ForceCycle }
+
+/** What a forces block gives the flywheel, column and pin-bearing blocks (SI). */
+export interface ForceCycle {
+  /** The linkage block the forces are on. */
+  readonly linkageId: string
+  readonly linkageKind: 'slider-crank' | 'four-bar'
+  /** Torque the drive applies to the crank (input), positive in the sense of rotation, at a core angle. */
+  torque(theta: number): number
+  /** Crank range: start and span (a full turn, or two for a deltoid), and whether it turns fully. */
+  readonly start: number
+  readonly period: number
+  readonly fullTurn: boolean
+  /** Crank speed magnitude, rad/s, and sense of rotation. */
+  readonly speed: number
+  readonly rotation: 1 | -1
+  readonly driver: 'crank' | 'slider' | 'input' | 'output'
+  /** Mean drive torque over the period, N·m, or null. */
+  readonly torqueMean: number | null
+  /** Work done on the process load per cycle (J, ≥ 0 when the machine works on it), or null. */
+  readonly loadWork: number | null
+  /** Largest rod (coupler) compression, N, with its core angle; null when it is never compressed. */
+  readonly rodCompression: { readonly value: number; readonly theta: number } | null
+  /** Rod (coupler) pin-centre length, m. */
+  readonly rodLength: number
+  /** Pin forces over the cycle, for bearing checks: force magnitude and the relative angular velocity of the two links it joins, at a core angle. */
+  pin(name: 'crank-pin' | 'wrist-pin', theta: number): { readonly force: number; readonly relativeSpeed: number }
+  /** Largest force on each pin and its core angle. */
+  readonly pinForceMax: Readonly<Record<'crank-pin' | 'wrist-pin', { readonly value: number; readonly theta: number }>>
 }
 
 /** What a package can cover; the scope statement lists what its blocks cover and excludes the rest. */
-export type Topic = 'kinematics' | 'synthesis' | 'forces' | 'flywheel' | 'strength' | 'tolerances' | 'clearances' | 'study'
+export type Topic = 'kinematics' | 'synthesis' | 'forces' | 'flywheel' | 'buckling' | 'bearings' | 'tolerances' | 'clearances' | 'study'
 
 /** What evaluating one block gave. */
 export interface BlockOutcome {
@@ -273,6 +339,10 @@ export interface BlockOutcome {
   readonly table: TableOutcome | null
   readonly chart: ChartOutcome | null
   readonly drawing: DrawingOutcome | null
+  /** Tables of data the block read (load tables), printed with its inputs. */
+  readonly data: readonly DataTable[]
+  /** The core analysis, for the blocks that build on this one, or null. */
+  readonly core: CoreHandle | null
 }
 
 /** A block kind. */
@@ -309,6 +379,8 @@ export function outcome(block: CalcBlock, kindLabel: string, parts: Partial<Bloc
     table: null,
     chart: null,
     drawing: null,
+    data: [],
+    core: null,
     ...parts,
   }
 }

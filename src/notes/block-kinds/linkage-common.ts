@@ -61,6 +61,6 @@ export function kinematicAssumptions(from: string, link: 'crank' | 'input', join
       verify: false,
       from,
     },
-    { text: 'Kinematics only: forces, friction, elastic deflection, clearances and manufacturing tolerances are not included.', verify: false, from },
+    { text: 'Kinematics only: forces, friction, elastic deflection, clearances and manufacturing tolerances are not included.', verify: false, from, droppedWith: 'forces' },
   ]
 }

@@ -68,6 +68,7 @@ export const sliderCrankKind: BlockKind = {
       assumptions: sliderCrankAssumptions(analysis, block.id ?? 'slider-crank'),
       summary: summaryNames(analysis),
       sweep: view.source,
+      core: { type: 'slider-crank', analysis },
     })
   },
 }

@@ -6,6 +6,7 @@
  *     of: pusher
  *     quantities: position, velocity, acceleration, transmission_angle
  *     every: 30 deg
+ *     peaks: yes               (rows also at each quantity's greatest and least value)
  */
 import { columnDecimals, displayUnit, formatFixed, unitLabel } from '../display.js'
 import { evaluateText } from '../expressions.js'
@@ -16,7 +17,7 @@ import { toCore, toDisplay, travel } from './angles.js'
 import { openSweepBlock, sweepDependencies } from './sweep-block.js'
 import { outcome, type BlockKind, type TableOutcome } from './kind.js'
 
-const KNOWN = ['of', 'quantities', 'every', 'at']
+const KNOWN = ['of', 'quantities', 'every', 'at', 'peaks']
 /** Most rows a table may have: a design review reads it. */
 const MAX_ROWS = 400
 /** A marked position this close (rad) to a stepped row is that row: one row, labelled. */
@@ -76,6 +77,26 @@ export const tableKind: BlockKind = {
       const same = rows.find((r) => Math.abs(r.display - display) < SAME_ROW)
       if (same) same.marker = same.marker ? `${same.marker}, ${marker.label}` : marker.label
       else rows.push({ display, marker: marker.label })
+    }
+    // The exact extremes of the listed quantities, as rows of their own.
+    const peaks = entries.get('peaks')
+    if (peaks && peaks.value !== 'yes' && peaks.value !== 'no') {
+      reportError(file, 'invalid-choice', messages['invalid-choice']('peaks', peaks.value, ['yes', 'no']), peaks.valuePlace)
+      return null
+    }
+    if (peaks?.value === 'yes') {
+      for (const name of wanted) {
+        const e = source.extremes.get(name)
+        if (!e) continue
+        for (const [words, point] of [['greatest', e.max], ['least', e.min]] as const) {
+          if (!Number.isFinite(point.value)) continue
+          const display = toDisplay(source, point.theta)
+          const label = `${words} ${name}`
+          const same = rows.find((r) => Math.abs(r.display - display) < SAME_ROW)
+          if (same) same.marker = same.marker ? `${same.marker}, ${label}` : label
+          else rows.push({ display, marker: label })
+        }
+      }
     }
     // Time order: from where the cycle starts, in the sense of rotation.
     const order = (display: number): number => travel(source, toCore(source, display))

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { VFile } from 'vfile'
 import { buildNote, type BuiltNote } from '../../src/build.js'
+import type { DataReader } from '../../src/notes/block-kinds/kind.js'
 import { readNote } from '../../src/notes/note.js'
 import { TOOL } from '../../src/version.js'
 
@@ -19,18 +20,18 @@ references:
 `
 
 /** Build a note given as text (front matter added unless it has its own). */
-export async function build(markdown: string, path = 'test.md'): Promise<{ file: VFile; built: BuiltNote }> {
+export async function build(markdown: string, path = 'test.md', readData: DataReader | null = null): Promise<{ file: VFile; built: BuiltNote }> {
   const value = markdown.startsWith('---') ? markdown : FRONT + markdown
   const file = new VFile({ path, value })
-  const built = await buildNote(file, { tool: TOOL, notePath: path, template, commit: 'test' })
+  const built = await buildNote(file, { tool: TOOL, notePath: path, template, commit: 'test', readData })
   return { file, built }
 }
 
 /** Read (evaluate) a note given as text without rendering. */
-export function read(markdown: string) {
+export function read(markdown: string, readData: DataReader | null = null) {
   const value = markdown.startsWith('---') ? markdown : FRONT + markdown
   const file = new VFile({ path: 'test.md', value })
-  return { file, ...readNote(file, TOOL) }
+  return { file, ...readNote(file, TOOL, { readData }) }
 }
 
 /** Messages as `line:column severity rule` strings, sorted. */

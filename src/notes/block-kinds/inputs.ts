@@ -24,6 +24,8 @@ export interface InputSpec {
   readonly default?: string
   /** A word accepted instead of a quantity (e.g. `straight` for a path radius). */
   readonly word?: string
+  /** Refuse a negative value (a mass, an inertia), at the place it is written. */
+  readonly nonNegative?: boolean
 }
 
 /** Inputs read: as shown, as SI numbers, and as words. */
@@ -153,6 +155,11 @@ export function readInputs(
         } else {
           reportError(file, 'dimension-mismatch', messages['dimension-mismatch'](spec.name, spec.label, reading.reason), place ?? block.place)
         }
+        ok = false
+        continue
+      }
+      if (spec.nonNegative && reading.si < 0) {
+        reportError(file, 'dimension-mismatch', messages['dimension-mismatch'](spec.name, spec.label, `expected zero or more, got ${text}`), place ?? block.place)
         ok = false
         continue
       }

@@ -93,7 +93,9 @@ function inputsTable(inputs: readonly InputValue[], context: RenderContext, capt
           ? withCitations(input.source, context.references)
           : from.length > 0
             ? [text('from '), ...from.flatMap((b, i) => [...(i > 0 ? [text(', ')] : []), h('a', { href: `#${blockAnchor(b)}` }, `#${b.id}`)])]
-            : [h('span.lw-missing-source', 'no source given')]
+            : input.value.type === 'text'
+              ? [h('span.lw-default', 'as chosen')]
+              : [h('span.lw-missing-source', 'no source given')]
       // A value written as a number and a unit is shown as written; anything else as computed, with what was written.
       const literal = input.value.type === 'text' ? null : literalOf(written)
       if (literal === null && input.value.type !== 'text') source.push(h('span.lw-written', [' — written ', h('code', written)]))

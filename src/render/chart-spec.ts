@@ -38,13 +38,15 @@ export const CHART_CONFIG = {
     domainColor: '#4d5962',
     tickColor: '#4d5962',
   },
-  legend: { orient: 'bottom', labelFontSize: 10, title: null, symbolStrokeWidth: 2, symbolSize: 260, symbolType: 'stroke' },
+  legend: { orient: 'bottom', labelFontSize: 10, labelLimit: 420, title: null, symbolStrokeWidth: 2, symbolSize: 260, symbolType: 'stroke' },
   line: { strokeWidth: 1.6 },
 } as const
 
 type Spec = Record<string, unknown>
 
 const title = (label: string, unit: string): string => (unit ? `${label} (${unit})` : label)
+/** An axis or legend title: the quantity without its sign-convention words (the caption keeps them), and its unit. */
+const short = (label: string, unit: string): string => title(label.replace(/\s*\([^)]*\)\s*$/, ''), unit)
 
 /** The vega-lite spec of a chart, with its data inline. */
 export function chartSpec(chart: ChartOutcome): Spec {
@@ -72,10 +74,10 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
     for (let i = 0; i < chart.x.values.length; i++) {
       const x = chart.x.values[i]!
       const y = s.values[i]!
-      if (Number.isFinite(x) && Number.isFinite(y)) rows.push({ x: round(x), y: round(y), series: title(s.label, s.unit), i })
+      if (Number.isFinite(x) && Number.isFinite(y)) rows.push({ x: round(x), y: round(y), series: short(s.label, s.unit), i })
     }
   }
-  const names = series.map((s) => title(s.label, s.unit))
+  const names = series.map((s) => short(s.label, s.unit))
   const styles = series.map((_, i) => SERIES_STYLE[(offset + i) % SERIES_STYLE.length]!)
   const xScale: Spec = { zero: false, nice: chart.xRange === null }
   if (chart.xRange) xScale.domain = [...chart.xRange]
@@ -85,7 +87,7 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
   if (chart.yRange) yScale.domain = [...chart.yRange]
   else if (!chart.equalAspect) yScale.domain = roomyDomain(chart, series)
   const angleAxis = chart.x.kind === 'angle' && chart.x.unit === '°'
-  const xAxis: Spec = { title: showXTitle ? title(chart.x.label, chart.x.unit) : null, labels: true }
+  const xAxis: Spec = { title: showXTitle ? short(chart.x.label, chart.x.unit) : null, labels: true }
   if (angleAxis && chart.xRange) xAxis.values = ticks(chart.xRange[0], chart.xRange[1])
   const line: Spec = {
     data: { values: rows },
@@ -145,15 +147,21 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
     mark: { type: 'point', filled: true, size: 28, color: '#1c2226' },
     encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' } },
   })
+  // Labels that would overprint one another (two curves with near peaks) are stacked a line apart.
+  const domain = (yScale.domain as [number, number] | undefined) ?? extent(series[0]!.values)
+  const levels = stackLabels(peaks, [x0, x1], domain, chart.width, chart.height)
   for (const side of ['above', 'below'] as const) {
     for (const right of [false, true]) {
-      const group = peaks.filter((p) => p.side === side && p.right === right)
-      if (group.length === 0) continue
-      layers.push({
-        data: { values: group },
-        mark: { type: 'text', align: right ? 'right' : 'left', baseline: side === 'above' ? 'bottom' : 'top', dx: right ? -4 : 4, dy: side === 'above' ? -5 : 5, fontSize: 9, color: '#1c2226', font: FONT },
-        encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
-      })
+      for (const level of [...new Set(levels)].sort((a, b) => a - b)) {
+        const group = peaks.filter((p, i) => p.side === side && p.right === right && levels[i] === level)
+        if (group.length === 0) continue
+        const dy = (side === 'above' ? -5 : 5) + (side === 'above' ? -11 : 11) * level
+        layers.push({
+          data: { values: group },
+          mark: { type: 'text', align: right ? 'right' : 'left', baseline: side === 'above' ? 'bottom' : 'top', dx: right ? -4 : 4, dy, fontSize: 9, color: '#1c2226', font: FONT },
+          encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
+        })
+      }
     }
   }
   if (limit) {
@@ -173,8 +181,8 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
       encoding: { y: { field: 'y', type: 'quantitative' } },
     })
     layers.push({
-      data: { values: rows.map((r) => ({ ...r, x: round(x1) })) },
-      mark: { type: 'text', align: 'right', baseline: 'bottom', dx: -4, dy: -3, fontSize: 9, color: MARKER_COLOR, font: FONT },
+      data: { values: rows.map((r) => ({ ...r, x: round(x0) })) },
+      mark: { type: 'text', align: 'left', baseline: 'bottom', dx: 4, dy: -3, fontSize: 9, color: MARKER_COLOR, font: FONT },
       encoding: { x: { field: 'x', type: 'quantitative' }, y: { field: 'y', type: 'quantitative' }, text: { field: 'text' } },
     })
   }
@@ -188,6 +196,36 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
     height = Math.max(80, Math.round((ys[1] - ys[0]) * scale))
   }
   return { width, height, layer: layers }
+}
+
+/**
+ * A stacking level for each peak label: 0 where it is clear, 1, 2 … where its box
+ * (estimated at 5.3 px a character, 11 px a line) would overprint a label placed before it.
+ */
+export function stackLabels(
+  peaks: readonly { x: number; y: number; text: string; side: 'above' | 'below'; right: boolean }[],
+  xDomain: readonly [number, number],
+  yDomain: readonly [number, number],
+  width: number,
+  height: number,
+): number[] {
+  const boxes: { x0: number; x1: number; y0: number; y1: number }[] = []
+  return peaks.map((p) => {
+    const px = ((p.x - xDomain[0]) / (xDomain[1] - xDomain[0] || 1)) * width
+    const py = height - ((p.y - yDomain[0]) / (yDomain[1] - yDomain[0] || 1)) * height
+    const w = 5.3 * p.text.length
+    const [x0, x1] = p.right ? [px - 4 - w, px - 4] : [px + 4, px + 4 + w]
+    for (let level = 0; level < 6; level++) {
+      const shift = (p.side === 'above' ? -1 : 1) * (5 + 11 * level)
+      const [y0, y1] = p.side === 'above' ? [py + shift - 11, py + shift] : [py + shift, py + shift + 11]
+      const clash = boxes.some((b) => x0 < b.x1 && b.x0 < x1 && y0 < b.y1 && b.y0 < y1)
+      if (!clash || level === 5) {
+        boxes.push({ x0, x1, y0, y1 })
+        return level
+      }
+    }
+    return 0
+  })
 }
 
 /** Intervals of x where the values break the limit (linear interpolation at the crossings). */

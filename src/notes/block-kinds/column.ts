@@ -166,9 +166,9 @@ function columnMethod(result: ColumnResult, length: number, load: number, contex
     label: `Buckling ${words}`,
     formula:
       p.formula === 'euler'
-        ? 'k = \\sqrt{I/A},\\quad (l/k)_1 = \\sqrt{\\frac{2\\pi^2 C E}{S_y}},\\quad P_{cr} = \\frac{C\\pi^2 E A}{(l/k)^2}\\ \\text{(Euler, } l/k \\ge (l/k)_1)'
-        : 'k = \\sqrt{I/A},\\quad (l/k)_1 = \\sqrt{\\frac{2\\pi^2 C E}{S_y}},\\quad P_{cr} = A\\left(S_y - \\frac{1}{C E}\\left(\\frac{S_y\\,l}{2\\pi k}\\right)^2\\right)\\ \\text{(Johnson, } l/k < (l/k)_1)',
-    substituted: `I = ${tex(meta, second, 'second-moment')},\\ k = ${tex(meta, p.radiusOfGyration, 'length')},\\ l/k = \\frac{${tex(meta, length, 'length')}}{${tex(meta, p.radiusOfGyration, 'length')}} = ${texBare(meta, p.slenderness, 'ratio')},\\ C = ${texBare(meta, p.endConstant, 'ratio')},\\ (l/k)_1 = ${texBare(meta, p.transition, 'ratio')}`,
+        ? '\\begin{gathered}k = \\sqrt{I/A},\\quad (l/k)_1 = \\sqrt{\\frac{2\\pi^2 C E}{S_y}}\\\\ P_{cr} = \\frac{C\\pi^2 E A}{(l/k)^2}\\quad \\text{(Euler, } l/k \\ge (l/k)_1)\\end{gathered}'
+        : '\\begin{gathered}k = \\sqrt{I/A},\\quad (l/k)_1 = \\sqrt{\\frac{2\\pi^2 C E}{S_y}}\\\\ P_{cr} = A\\left(S_y - \\frac{1}{C E}\\left(\\frac{S_y\\,l}{2\\pi k}\\right)^2\\right)\\quad \\text{(Johnson, } l/k < (l/k)_1)\\end{gathered}',
+    substituted: `\\begin{gathered}I = ${tex(meta, second, 'second-moment')},\\quad k = ${tex(meta, p.radiusOfGyration, 'length')},\\quad l/k = \\frac{${tex(meta, length, 'length')}}{${tex(meta, p.radiusOfGyration, 'length')}} = ${texBare(meta, p.slenderness, 'ratio')}\\\\ C = ${texBare(meta, p.endConstant, 'ratio')},\\quad (l/k)_1 = ${texBare(meta, p.transition, 'ratio')}\\end{gathered}`,
     result: `P_{cr} = ${N(p.criticalLoad)}`,
     cites: ['lw-column'],
   })

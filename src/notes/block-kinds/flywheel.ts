@@ -151,6 +151,12 @@ export const flywheelKind: BlockKind = {
       warnings.push(text)
       reportWarning(context.file, 'dynamics-warning', messages['dynamics-warning'](text), place('diameter'))
     }
+    if (design?.form === 'rim' && design.thickness > design.radius / 2) {
+      // A thin rim's I = m·R² leaves out m·t²/4: fine for a slim rim, not for a thick one (common practice, no source).
+      const text = `The rim is thick (${showQuantity(design.thickness, 'length', context.meta.units, context.meta.digits)} on a ${showQuantity(design.radius, 'length', context.meta.units, context.meta.digits)} mean radius): the thin-rim sizing no longer describes it; take a larger diameter`
+      warnings.push(text)
+      reportWarning(context.file, 'dynamics-warning', messages['dynamics-warning'](text), place('diameter'))
+    }
     if (slowdown === 1) {
       const text = 'The flywheel cannot give the energy per stroke from its stored energy alone: the crank would stop without the motor'
       warnings.push(text)

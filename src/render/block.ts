@@ -99,7 +99,8 @@ function inputsTable(inputs: readonly InputValue[], context: RenderContext, capt
       // A value written as a number and a unit is shown as written; anything else as computed, with what was written.
       const literal = input.value.type === 'text' ? null : literalOf(written)
       if (literal === null && input.value.type !== 'text') source.push(h('span.lw-written', [' — written ', h('code', written)]))
-      let value: ElementContent[] = [h('span.lw-number', shown.number)]
+      // A word or a sentence (a table's description) wraps; a number stays on one line.
+      let value: ElementContent[] = [input.value.type === 'text' ? h('span.lw-word', shown.number) : h('span.lw-number', shown.number)]
       let unit = shown.label
       if (literal) {
         value = [h('span.lw-number', literal.number.replace(/^-/, '−'))]

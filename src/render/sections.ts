@@ -239,6 +239,12 @@ export function software(model: NoteModel, notePath: string, commit: string): El
       h('div', [h('dt', 'Program'), h('dd', `${model.tool.name} ${model.tool.version}`)]),
       h('div', [h('dt', 'Source revision'), h('dd', h('code', commit))]),
       h('div', [h('dt', 'Input'), h('dd', h('code', notePath))]),
+      model.dataFiles.length > 0
+        ? h('div', [
+            h('dt', 'Data files'),
+            h('dd', model.dataFiles.flatMap((f, i) => [...(i > 0 ? [h('br')] : []), h('code', f.path), ` — sha-256 ${f.sha256.slice(0, 16)}…, part of the fingerprint`])),
+          ])
+        : null,
       h('div', [h('dt', 'Outputs'), h('dd', 'this package (HTML, PDF) and results.json beside it')]),
       h('div', [
         h('dt', 'Verification'),

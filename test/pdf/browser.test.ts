@@ -35,7 +35,7 @@ describe('the HTML package in Chromium', () => {
     await running?.close()
   })
 
-  for (const note of ['carton-pusher', 'sieve-rocker']) {
+  for (const note of ['carton-pusher', 'sieve-rocker', 'plunger-pump', 'air-agitator']) {
     it(`should show ${note} with no console errors and every figure drawn`, async () => {
       const page = await browser.newPage()
       const problems: string[] = []
@@ -53,8 +53,10 @@ describe('the HTML package in Chromium', () => {
           return { cls: svg.getAttribute('class') ?? '', width: box.width, height: box.height }
         }),
       )
-      expect(sizes.filter((s) => s.cls.includes('lw-drawing-svg'))).toHaveLength(1)
-      expect(sizes.filter((s) => s.cls.includes('marks')).length).toBe(note === 'carton-pusher' ? 3 : 3)
+      // As many drawings and charts as the note has blocks for.
+      const source = readFileSync(join(dir, 'reports', `${note}.md`), 'utf8')
+      expect(sizes.filter((s) => s.cls.includes('lw-drawing-svg'))).toHaveLength(source.match(/^```drawing\b/gm)?.length ?? 0)
+      expect(sizes.filter((s) => s.cls.includes('marks')).length).toBe(source.match(/^```chart\b/gm)?.length ?? 0)
       for (const size of sizes) {
         expect(size.width, size.cls).toBeGreaterThan(50)
         expect(size.height, size.cls).toBeGreaterThan(50)

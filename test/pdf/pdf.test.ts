@@ -63,7 +63,9 @@ describe('PDF packages of the demo notes', () => {
   })
 
   it('should print a PDF beside every HTML package', () => {
-    expect(result.stderr).toBe('')
+    // The one message: the agitator's dead points, a warning the package shows.
+    expect(result.stderr).not.toMatch(/ {2}error {2}/)
+    expect(result.stderr.match(/ {2}warning {2}/g)).toHaveLength(1)
     expect(result.code).toBe(0)
     expect(existsSync(pdf())).toBe(true)
     expect(existsSync(join(dir, 'out/sieve-rocker/sieve-rocker.pdf'))).toBe(true)
@@ -121,7 +123,8 @@ describe('PDF packages of the demo notes', () => {
 
   it('should need as many pages as the content: cover, contents and scope sharing the first, no blank page', () => {
     expect(pusher.pages.length).toBeGreaterThanOrEqual(8)
-    expect(pusher.pages.length).toBeLessThanOrEqual(24)
+    // Kinematics, a rejected option and the forces of the push: dense pages, none wasted.
+    expect(pusher.pages.length).toBeLessThanOrEqual(28)
     expect(pusher.pages[0]).toContain('Document DN-T3-014 Revision C')
     expect(pusher.pages[0]).toContain('Contents')
     expect(pusher.pages[0]).toContain('Scope and caution')
@@ -208,6 +211,6 @@ describe('without a browser', () => {
     cpSync(join(root, 'reports'), join(dir, 'reports'), { recursive: true })
     const result = run(['build', '--no-pdf'], dir, { LINKWRIGHT_CHROMIUM: '/nonexistent/chromium' })
     expect(result.code).toBe(0)
-    expect(result.stderr).toBe('')
+    expect(result.stderr).not.toMatch(/No Chromium| {2}error {2}/)
   })
 })

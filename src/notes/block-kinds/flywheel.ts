@@ -42,6 +42,7 @@ const specs: readonly InputSpec[] = [
   { name: 'coefficient', label: 'coefficient of speed fluctuation (ω_max − ω_min)/ω_mean', symbol: 'C_s', kind: 'ratio' },
   { name: 'machine', label: 'machine type, for a typical coefficient of speed fluctuation', symbol: null, kind: 'choice', choices: TYPICAL_COEFFICIENTS.map((t) => t.machine) },
   { name: 'inertia', label: 'flywheel moment of inertia (to check instead of size)', symbol: 'I', kind: 'inertia' },
+  { name: 'existing_inertia', label: 'inertia already turning with the crank (crank, gears and motor rotor referred to it)', symbol: 'I_0', kind: 'inertia', default: '0 kg*m^2', nonNegative: true },
   { name: 'drive_torque', label: 'constant drive torque (default: the mean torque)', symbol: 'T_d', kind: 'torque' },
   { name: 'form', label: 'flywheel form', symbol: null, kind: 'choice', choices: ['rim', 'disc'], default: 'rim' },
   { name: 'density', label: 'density of the flywheel material', symbol: '\\rho', kind: 'density' },
@@ -97,9 +98,12 @@ export const flywheelKind: BlockKind = {
       reportError(context.file, 'dimension-mismatch', messages['dimension-mismatch']('coefficient', 'coefficient of speed fluctuation', `expected a number between 0 and 1, got ${coefficient}`), place('coefficient'))
       return null
     }
-    const inertia = si.inertia ?? withLinkage(block, context, () => flywheelInertia(fluctuation.deltaE, coefficient!, omega))
-    if (inertia === null) return null
-    const cs = coefficient ?? speedFluctuation(fluctuation.deltaE, inertia, omega)
+    const existing = si.existing_inertia ?? 0
+    // Sizing: the inertia the speed fluctuation needs, less what already turns with the crank; checking: both together.
+    const total = si.inertia !== undefined ? si.inertia + existing : withLinkage(block, context, () => flywheelInertia(fluctuation.deltaE, coefficient!, omega))
+    if (total === null) return null
+    const inertia = si.inertia ?? Math.max(0, total - existing)
+    const cs = coefficient ?? speedFluctuation(fluctuation.deltaE, total, omega)
     const omegaMax = omega * (1 + cs / 2)
     let design: FlywheelDesign | null = null
     if (si.density !== undefined && inertia > 0) {
@@ -115,9 +119,12 @@ export const flywheelKind: BlockKind = {
       quantity('energy_fluctuation', 'energy the flywheel stores and gives back per turn (largest swing of the surplus)', '\\Delta E', 'energy', fluctuation.deltaE),
       quantity('fastest_angle', `${source.convention.label} where the speed is greatest`, '\\theta_{\\max}', 'angle', angle(fluctuation.fastestAngle)),
       quantity('slowest_angle', `${source.convention.label} where the speed is least`, '\\theta_{\\min}', 'angle', angle(fluctuation.slowestAngle)),
-      quantity('drive_torque', 'constant drive torque the surplus is taken against', 'T_d', 'torque', fluctuation.driveTorque),
+      cycle.driver === 'slider' || cycle.driver === 'output'
+        ? quantity('driven_torque', 'steady torque the driven machine takes from the crank', 'T_L', 'torque', -fluctuation.driveTorque)
+        : quantity('drive_torque', 'constant drive torque the surplus is taken against', 'T_d', 'torque', fluctuation.driveTorque),
       quantity('coefficient', si.inertia !== undefined ? 'coefficient of speed fluctuation the inertia leaves' : 'coefficient of speed fluctuation used', 'C_s', 'ratio', cs),
-      quantity(si.inertia !== undefined ? 'inertia_given' : 'inertia_required', si.inertia !== undefined ? 'flywheel moment of inertia (given)' : 'flywheel moment of inertia required', 'I', 'inertia', inertia),
+      quantity('inertia_total', si.inertia !== undefined ? 'moment of inertia turning with the crank (flywheel and the rest)' : 'moment of inertia the speed fluctuation needs, in all', 'I', 'inertia', total),
+      quantity(si.inertia !== undefined ? 'inertia_given' : 'inertia_required', si.inertia !== undefined ? 'flywheel moment of inertia (given)' : 'flywheel moment of inertia to add', 'I_f', 'inertia', inertia),
       quantity('speed_max', 'greatest crank speed', '\\omega_{\\max}', 'rotational-speed', omegaMax),
       quantity('speed_min', 'least crank speed', '\\omega_{\\min}', 'rotational-speed', omega * (1 - cs / 2)),
     ]
@@ -136,8 +143,8 @@ export const flywheelKind: BlockKind = {
     }
     const energyPerStroke = cycle.loadWork !== null && cycle.loadWork > 0 ? cycle.loadWork : null
     let slowdown: number | null = null
-    if (energyPerStroke !== null && inertia > 0) {
-      const after = omegaMax * omegaMax - (2 * energyPerStroke) / inertia
+    if (energyPerStroke !== null && total > 0) {
+      const after = omegaMax * omegaMax - (2 * energyPerStroke) / total
       slowdown = after > 0 ? 1 - Math.sqrt(after) / omegaMax : 1
     }
     results.push(
@@ -177,7 +184,7 @@ export const flywheelKind: BlockKind = {
       covers: ['flywheel'],
       inputs: inputs.values,
       results,
-      method: flywheelMethod(fluctuation, cs, inertia, omega, design, si.inertia !== undefined, energyPerStroke, slowdown, angle, context),
+      method: flywheelMethod(fluctuation, cs, total, existing, omega, design, si.inertia !== undefined, energyPerStroke, slowdown, angle, context),
       warnings,
       assumptions: [
         { text: 'The drive (motor) gives a constant torque, equal to the mean torque unless one is stated; the speed fluctuation is small, so the torque curve at the mean speed stands for the whole turn.', verify: false, from },
@@ -194,6 +201,7 @@ function flywheelMethod(
   f: EnergyFluctuation,
   cs: number,
   inertia: number,
+  existing: number,
   omega: number,
   design: FlywheelDesign | null,
   checking: boolean,
@@ -209,7 +217,7 @@ function flywheelMethod(
       formula: 'E(\\theta) = \\int_{0}^{\\theta} (T_d - T)\\,d\\theta,\\qquad \\Delta E = E_{\\max} - E_{\\min}',
       substituted: `T_d = ${tex(meta, f.driveTorque, 'torque')},\\quad E_{\\max} = ${tex(meta, f.energyMax, 'energy')}\\ \\text{at}\\ ${tex(meta, angle(f.fastestAngle), 'angle')},\\quad E_{\\min} = ${tex(meta, f.energyMin, 'energy')}\\ \\text{at}\\ ${tex(meta, angle(f.slowestAngle), 'angle')}`,
       result: `\\Delta E = ${tex(meta, f.deltaE, 'energy')}`,
-      note: 'T is the torque the linkage needs (from the forces block), T_d the constant drive. The surplus E is integrated in the sense of rotation from the start of the turn by five-point Gauss–Legendre quadrature on 3600 steps, with the turning points (T = T_d) found by bisection. The speed is greatest where E is greatest.',
+      note: `T is the torque the linkage needs (from the forces block), T_d the constant drive${f.driveTorque < 0 ? ' (negative: the slider drives, and the driven machine takes the steady torque −T_d from the crank)' : ''}. The surplus E is integrated in the sense of rotation from the start of the turn by five-point Gauss–Legendre quadrature on 3600 steps, with the turning points (T = T_d) found by bisection. The speed is greatest where E is greatest.`,
     },
   ]
   if (checking) {
@@ -218,15 +226,15 @@ function flywheelMethod(
       formula: 'C_s = \\frac{\\Delta E}{I\\,\\omega^2}',
       substituted: `C_s = \\frac{${tex(meta, f.deltaE, 'energy')}}{${tex(meta, inertia, 'inertia')} \\times (${tex(meta, omega, 'angular-velocity')})^2}`,
       result: `C_s = ${texBare(meta, cs, 'ratio')}`,
-      note: 'From ½I(ω_max² − ω_min²) = ΔE with ω = (ω_max + ω_min)/2 and C_s = (ω_max − ω_min)/ω, exactly.',
+      note: `From ½I(ω_max² − ω_min²) = ΔE with ω = (ω_max + ω_min)/2 and C_s = (ω_max − ω_min)/ω, exactly.${existing > 0 ? ' I is the flywheel and the inertia already turning with the crank together.' : ''}`,
     })
   } else {
     steps.push({
       label: 'Moment of inertia for the coefficient of speed fluctuation',
       formula: 'I = \\frac{\\Delta E}{C_s\\,\\omega^2}',
       substituted: `I = \\frac{${tex(meta, f.deltaE, 'energy')}}{${texBare(meta, cs, 'ratio')} \\times (${tex(meta, omega, 'angular-velocity')})^2}`,
-      result: `I = ${tex(meta, inertia, 'inertia')}`,
-      note: 'From ½I(ω_max² − ω_min²) = ΔE with ω = (ω_max + ω_min)/2 and C_s = (ω_max − ω_min)/ω, exactly.',
+      result: existing > 0 ? `I = ${tex(meta, inertia, 'inertia')},\\quad I_f = I - I_0 = ${tex(meta, Math.max(0, inertia - existing), 'inertia')}` : `I = ${tex(meta, inertia, 'inertia')}`,
+      note: `From ½I(ω_max² − ω_min²) = ΔE with ω = (ω_max + ω_min)/2 and C_s = (ω_max − ω_min)/ω, exactly.${existing > 0 ? ' I_0 is the inertia already turning with the crank; the flywheel adds I_f.' : ''}`,
     })
   }
   if (design) {

@@ -69,6 +69,7 @@ function driveResults(view: ForceView, inputs: ReadInputs, delivered: boolean, r
   const k = inputs.si.service_factor ?? 1
   const eta = inputs.si.drive_efficiency ?? 1
   const motor = !delivered && view.powerMean !== null && view.powerMean > 0 ? (k * view.powerMean) / eta : null
+  const peakPower = view.extremes.get(view.powerName)?.max.value ?? null
   const results: NamedValue[] = delivered
     ? [
         quantity('output_torque_mean', 'mean torque the crank delivers over a turn', 'T_m', 'torque', view.torqueMean, why),
@@ -81,7 +82,8 @@ function driveResults(view: ForceView, inputs: ReadInputs, delivered: boolean, r
         quantity('torque_rms', 'RMS drive torque over a turn', 'T_{rms}', 'torque', view.torqueRms, why),
         quantity('power_mean', 'mean drive power', 'P_m', 'power', view.powerMean, why),
         quantity('work_per_cycle', 'work done by the drive per turn', 'W', 'energy', view.driveWork, why),
-        quantity('motor_power', 'motor power K_s·P_m/η', 'P_{motor}', 'power', motor, view.powerMean !== null && view.powerMean <= 0 ? 'the mean drive power is not positive' : why),
+        quantity('motor_power', 'motor power K_s·P_m/η (a flywheel carries the peaks)', 'P_{motor}', 'power', motor, view.powerMean !== null && view.powerMean <= 0 ? 'the mean drive power is not positive' : why),
+        quantity('motor_power_peak', 'motor power K_s·P_peak/η to meet the peak without a flywheel', 'P_{motor,pk}', 'power', peakPower !== null && peakPower > 0 ? (k * peakPower) / eta : null, 'the drive power is never positive'),
       ]
   results.push(quantity('load_work', 'work done on the process load per turn', 'W_P', 'energy', view.loadWork, why))
   return results
@@ -182,7 +184,7 @@ export function sliderCrankForcesOutcome(
       ? { text: 'The links’ weight is neglected (no `gravity`).', verify: false, from }
       : { text: `Gravity acts along ${inputs.words.gravity} of the linkage’s frame at 9.80665 m/s².`, verify: false, from },
     load.table
-      ? { text: 'The load varies linearly between the rows of its table.', verify: false, from }
+      ? { text: 'The load varies linearly between the rows of its table, and holds its end value where the table stops short of the motion by no more than 0.1 % of it.', verify: false, from }
       : { text: 'The load is constant over the strokes it acts on.', verify: false, from },
   )
   if (!straight) extra.push({ text: 'On the arc path the slider is a point mass at the tip of a massless rocker pivoted at the arc centre; the load acts along the arc.', verify: false, from })
@@ -326,8 +328,8 @@ function sliderCrankForceMethod(
       label: 'Motor power',
       formula: 'P_{motor} = K_s\\,\\frac{P_m}{\\eta}',
       substituted: `P_{motor} = ${texBare(meta, k, 'ratio')} \\times \\frac{${tex(meta, f.powerMean, 'power')}}{${texBare(meta, eta, 'ratio')}}`,
-      result: `P_{motor} = ${tex(meta, (k * f.powerMean) / eta, 'power')}`,
-      note: 'The motor meets the mean power only where a flywheel carries the peaks (see the flywheel block); without one it must meet the peak power.',
+      result: `P_{motor} = ${tex(meta, (k * f.powerMean) / eta, 'power')},\\quad P_{motor,pk} = K_s\\,\\frac{P_{pk}}{\\eta} = ${tex(meta, (k * (view.extremes.get(view.powerName)!.max.value)) / eta, 'power')}`,
+      note: 'The motor meets the mean power only where a flywheel carries the peaks (see a flywheel block); without one it must meet the peak power P_pk.',
     })
   }
   if (delivered && f.kinematics.deadPoints.length > 0) {

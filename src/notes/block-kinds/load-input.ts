@@ -21,6 +21,9 @@ import type { DataTable, EvaluationContext } from './kind.js'
 /** What the load's table is against, as the note writes it. */
 export const LOAD_ABSCISSAE = ['travel', 'position', 'crank-angle'] as const
 
+/** Share of the motion a table may fall short of at an end, holding its end value there. */
+export const COVER_TOLERANCE = 1e-3
+
 /** The load read: the core's load, its inputs-table line and the table to print. */
 export interface LoadReading {
   readonly load: Load
@@ -121,14 +124,15 @@ export function readLoad(load: BodyEntry | undefined, file: BodyEntry | undefine
     rows.push([xs, found.si])
   }
   if (valueKind === 'pressure' && options.area === null) return fail('missing-input', messages['missing-input']('area', 'piston area (or `bore`) for a pressure table', 'forces'), entry.valuePlace)
-  // The table must cover the motion: no value is made up beyond its ends.
-  const tol = 1e-6 * Math.max(Math.abs(options.cover.from), Math.abs(options.cover.to), 1e-3)
+  // The table must cover the motion: no value is made up beyond its ends, but a table
+  // written to the round stroke (80 mm for 80.008 mm) holds its end value over the last 0.1 %.
+  const tol = COVER_TOLERANCE * Math.abs(options.cover.to - options.cover.from) + 1e-12
   const first = rows[0]![0]
   const last = rows[rows.length - 1]![0]
   if (first > options.cover.from + tol || last < options.cover.to - tol) {
     const show = (v: number): string => showQuantity(v, xKind, context.meta.units, context.meta.digits)
     const where = fromFile ? entry.valuePlace : (cells[first > options.cover.from + tol ? 0 : cells.length - 1]![0]!.place)
-    return fail('load-table', messages['load-table'](`it runs from ${show(first)} to ${show(last)} but must cover ${options.cover.words}, ${show(options.cover.from)} to ${show(options.cover.to)}: add rows so that no value is extrapolated`), where)
+    return fail('load-table', messages['load-table'](`it runs from ${show(first)} to ${show(last)} but must cover ${options.cover.words}, ${show(options.cover.from)} to ${show(options.cover.to)}: add rows so that no value is extrapolated (a table may fall short by 0.1 % of the motion)`), where)
   }
   let core: Load
   try {

@@ -91,14 +91,17 @@ export function fourBarForceState(
   alpha2: number,
   kin: Float64Array,
   out: Float64Array,
+  index = 0,
+  stride = 1,
 ): boolean {
   if (!fourBarState(linkage, theta2, kin)) {
-    out.fill(Number.NaN, 0, FOUR_BAR_FORCE_STATE)
+    for (let j = 0; j < FOUR_BAR_FORCE_STATE; j++) out[index + j * stride] = Number.NaN
     return false
   }
   const { input: a, coupler: b, output: c, groundX, groundY, rotation } = linkage
   const m = input.masses
-  const [gx, gy] = input.gravity
+  const gx = input.gravity[0]
+  const gy = input.gravity[1]
   const t3 = kin[THETA3]!
   const t4 = kin[THETA4]!
   const w3 = kin[H3]! * omega2
@@ -150,7 +153,7 @@ export function fourBarForceState(
   const M4 = -m.outputInertia * al4 - cross(r4x, r4y, k3x, k3y) + cross(r4x, r4y, fex, fey) + m.output * r4 * (c4 * gy - s4 * gx) + loadTorque
   const det = rABx * r4y - rABy * r4x
   if (!(Math.abs(det) > 1e-12 * (a + b + c) ** 2)) {
-    out.fill(Number.NaN, 0, FOUR_BAR_FORCE_STATE)
+    for (let j = 0; j < FOUR_BAR_FORCE_STATE; j++) out[index + j * stride] = Number.NaN
     return false
   }
   // Solve −rABy·Fx + rABx·Fy = M3 and −r4y·Fx + r4x·Fy = M4 for F32 (Cramer's rule).
@@ -165,21 +168,21 @@ export function fourBarForceState(
   const f14x = m.output * aG4x + f43x - m.output * gx - fex
   const f14y = m.output * aG4y + f43y - m.output * gy - fey
   const lengthAB = Math.hypot(rABx, rABy)
-  out[FB.LOAD_TORQUE] = loadTorque
-  out[FB.TORQUE] = rotation * torque
-  out[FB.POWER] = torque * omega2
-  out[FB.O2_X] = f12x
-  out[FB.O2_Y] = f12y
-  out[FB.A_X] = -f32x
-  out[FB.A_Y] = -f32y
-  out[FB.B_X] = -f43x
-  out[FB.B_Y] = -f43y
-  out[FB.O4_X] = f14x
-  out[FB.O4_Y] = f14y
+  out[index + FB.LOAD_TORQUE * stride] = loadTorque
+  out[index + FB.TORQUE * stride] = rotation * torque
+  out[index + FB.POWER * stride] = torque * omega2
+  out[index + FB.O2_X * stride] = f12x
+  out[index + FB.O2_Y * stride] = f12y
+  out[index + FB.A_X * stride] = -f32x
+  out[index + FB.A_Y * stride] = -f32y
+  out[index + FB.B_X * stride] = -f43x
+  out[index + FB.B_Y * stride] = -f43y
+  out[index + FB.O4_X * stride] = f14x
+  out[index + FB.O4_Y * stride] = f14y
   // The force on the coupler at B is F43; pulling it away from A along A→B is tension.
-  out[FB.COUPLER] = (f43x * rABx + f43y * rABy) / lengthAB
-  out[FB.SHAKE_X] = -(m.input * aG2x + m.coupler * aG3x + m.output * aG4x)
-  out[FB.SHAKE_Y] = -(m.input * aG2y + m.coupler * aG3y + m.output * aG4y)
+  out[index + FB.COUPLER * stride] = (f43x * rABx + f43y * rABy) / lengthAB
+  out[index + FB.SHAKE_X * stride] = -(m.input * aG2x + m.coupler * aG3x + m.output * aG4x)
+  out[index + FB.SHAKE_Y * stride] = -(m.input * aG2y + m.coupler * aG3y + m.output * aG4y)
   return true
 }
 
@@ -191,7 +194,8 @@ export class FourBarForceSweep {
   readonly inputAngle: Float64Array
   readonly slots: readonly Float64Array[]
   private readonly kin = new Float64Array(FOUR_BAR_STATE)
-  private readonly out = new Float64Array(FOUR_BAR_FORCE_STATE)
+  /** All slots in one slot-major buffer; `slots` are views of it. */
+  private readonly buffer: Float64Array
 
   constructor(linkage: FourBarLinkage, input: FourBarForceInput, count: number) {
     if (!Number.isInteger(count) || count < 2) throw new LinkageError('invalid-number', `A force sweep needs a whole number of at least 2 input angles, got ${count}`)
@@ -200,21 +204,21 @@ export class FourBarForceSweep {
     this.input = input
     this.count = count
     this.inputAngle = new Float64Array(count)
-    this.slots = Array.from({ length: FOUR_BAR_FORCE_STATE }, () => new Float64Array(count))
+    this.buffer = new Float64Array(FOUR_BAR_FORCE_STATE * count)
+    this.slots = Array.from({ length: FOUR_BAR_FORCE_STATE }, (_, j) => this.buffer.subarray(j * count, (j + 1) * count))
   }
 
   /** Recompute at given input angles (as many as `count`) for a speed magnitude and angular acceleration in the sense of rotation. */
   updateAt(angles: ArrayLike<number>, speed: number, angularAcceleration = 0): this {
     if (angles.length !== this.count) throw new LinkageError('invalid-number', `Expected ${this.count} input angles, got ${angles.length}`)
-    const { linkage, input, count, inputAngle, kin, out, slots } = this
+    const { linkage, input, count, inputAngle, kin, buffer } = this
     const omega = linkage.rotation * speed
     const alpha = linkage.rotation * angularAcceleration
-    // One input angle per step: the kinematic state, then the forces, copied slot by slot.
+    // One input angle per step: the kinematic state, then the forces written straight into their slots.
     for (let i = 0; i < count; i++) {
       const theta = angles[i]!
       inputAngle[i] = theta
-      fourBarForceState(linkage, input, theta, omega, alpha, kin, out)
-      for (let j = 0; j < FOUR_BAR_FORCE_STATE; j++) slots[j]![i] = out[j]!
+      fourBarForceState(linkage, input, theta, omega, alpha, kin, buffer, i, count)
     }
     return this
   }

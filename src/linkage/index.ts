@@ -7,6 +7,11 @@ export { TAU, DEG, GEOMETRY_TOLERANCE, wrapTurn, wrapHalfTurn, includedAngle } f
 export {
   sliderCrank,
   sliderCrankState,
+  sliderCrankForceKinematics,
+  ROD_COS,
+  ROD_SIN,
+  CRANK_COS,
+  CRANK_SIN,
   sliderPosition,
   sliderVelocityCoefficient,
   sliderAccelerationCoefficient,

@@ -9,7 +9,7 @@ import { LinkageError } from './errors.js'
 import { extremesOf, type Extremes } from './extremes.js'
 import { harmonic, integrate, mean, rms } from './cycle.js'
 import { TAU } from './math.js'
-import { DX, SLIDER_CRANK_STATE, sliderCrankState } from './slider-crank.js'
+import { DX, SLIDER_CRANK_STATE, sliderCrankForceKinematics, sliderCrankState } from './slider-crank.js'
 import type { SliderCrankAnalysis } from './slider-crank-analysis.js'
 import {
   F,
@@ -112,7 +112,7 @@ export function analyseSliderCrankForces(kinematics: SliderCrankAnalysis, input:
   const at = (theta: number, name: string): number => {
     const measure = SLIDER_CRANK_FORCE_MEASURES[name]
     if (!measure) throw new LinkageError('invalid-choice', `No force quantity ${name}`)
-    if (!sliderCrankState(linkage, theta, kin)) return Number.NaN
+    if (!sliderCrankForceKinematics(linkage, theta, kin)) return Number.NaN
     if (!sliderCrankForceState(linkage, input, timing, theta, omega, alpha, kin, out)) return Number.NaN
     return measure(out, theta)
   }
@@ -159,7 +159,7 @@ export function analyseSliderCrankForces(kinematics: SliderCrankAnalysis, input:
   }
   // The shaking force without the counterweight, refined like the others.
   const withoutAt = (theta: number): number => {
-    if (!sliderCrankState(linkage, theta, kin) || !sliderCrankForceState(linkage, input, timing, theta, omega, alpha, kin, out)) return Number.NaN
+    if (!sliderCrankForceKinematics(linkage, theta, kin) || !sliderCrankForceState(linkage, input, timing, theta, omega, alpha, kin, out)) return Number.NaN
     const ang = theta + m.counterweightPhase
     const cwx = -counterweightMassRadius * (-alpha * Math.sin(ang) - omega * omega * Math.cos(ang))
     const cwy = -counterweightMassRadius * (alpha * Math.cos(ang) - omega * omega * Math.sin(ang))

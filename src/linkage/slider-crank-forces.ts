@@ -12,7 +12,7 @@
 import { LinkageError, requireFinite } from './errors.js'
 import { sliderLoadForce, type Load } from './loads.js'
 import { wrapTurn } from './math.js'
-import { DDPHI, DDX, DPHI, DX, POSITION, ROD_ANGLE, SLIDER_CRANK_STATE, sliderCrankState, type SliderCrankLinkage } from './slider-crank.js'
+import { CRANK_COS, CRANK_SIN, DDPHI, DDX, DPHI, DX, POSITION, ROD_COS, ROD_SIN, SLIDER_CRANK_STATE, sliderCrankForceKinematics, type SliderCrankLinkage } from './slider-crank.js'
 
 /** Masses of a slider-crank (kg, m, kg·m²). */
 export interface SliderCrankMasses {
@@ -93,6 +93,9 @@ export const F = {
 /** Length of the force state. */
 export const FORCE_STATE = 20
 
+/** cos and sin of the last counterweight phase seen: a sweep keeps one phase, so they are found once. */
+const phase = { angle: Number.NaN, cos: 1, sin: 0 }
+
 /** Check masses and friction; throws LinkageError for a negative mass or a centre off the link. */
 export function checkMasses(masses: SliderCrankMasses, rod: number, friction: number): void {
   for (const [name, value] of [
@@ -124,10 +127,11 @@ export interface StrokeTiming {
 }
 
 /**
- * The forces at one crank angle, from the kinematic state `kin` (slider-crank.ts
- * slots) at θ, crank speed ω and angular acceleration α (both counter-clockwise
- * positive). Writes FORCE_STATE slots into `out`; returns false when the guide
- * locks (friction too high for the rod's angle) and writes NaN. No allocation.
+ * The forces at one crank angle, from the kinematic state `kin` at θ written by
+ * sliderCrankForceKinematics, crank speed ω and angular acceleration α (both counter-clockwise
+ * positive). Writes FORCE_STATE slots into `out` at index + slot·stride (a sweep
+ * writes straight into its slot-major buffer); returns false when the guide locks
+ * (friction too high for the rod's angle) and writes NaN. No allocation.
  */
 export function sliderCrankForceState(
   linkage: SliderCrankLinkage,
@@ -138,16 +142,18 @@ export function sliderCrankForceState(
   alpha: number,
   kin: Float64Array,
   out: Float64Array,
+  index = 0,
+  stride = 1,
 ): boolean {
   const { crank: a, rod: b, sliderSide: side, rotation } = linkage
   const { masses, load, friction } = input
-  const [gx, gy] = input.gravity
-  const c = Math.cos(theta)
-  const s = Math.sin(theta)
+  const gx = input.gravity[0]
+  const gy = input.gravity[1]
+  const c = kin[CRANK_COS]!
+  const s = kin[CRANK_SIN]!
   const dx = kin[DX]!
-  const phi = kin[ROD_ANGLE]!
-  const ux = Math.cos(phi)
-  const uy = Math.sin(phi)
+  const ux = kin[ROD_COS]!
+  const uy = kin[ROD_SIN]!
   const x = kin[POSITION]!
   const v = dx * omega
   const aB = kin[DDX]! * omega * omega + dx * alpha
@@ -173,20 +179,21 @@ export function sliderCrankForceState(
   const kay = mr * (aGy - gy)
   const Q = -(masses.rodInertia * phiDdot + g * (ux * kay - uy * kax)) / b
   const fx0 = ms * aB - P - ms * gx
-  const solveN = (k: number): number => (Q + ux * ms * gy + uy * fx0) / (k * uy - ux)
-  let N = solveN(0)
+  // N = numerator / (k·uy − ux) for a friction factor k (f = k·N).
+  const numerator = Q + ux * ms * gy + uy * fx0
+  let N = numerator / -ux
   let k = 0
   if (friction > 0 && v !== 0) {
     // f = −μ|N|·sign(v): take the sign of N the frictionless solution gives, and keep it if the answer agrees.
     let sN = N >= 0 ? 1 : -1
     k = -friction * Math.sign(v) * sN
-    N = solveN(k)
+    N = numerator / (k * uy - ux)
     if ((N >= 0 ? 1 : -1) !== sN) {
       sN = -sN
       k = -friction * Math.sign(v) * sN
-      N = solveN(k)
+      N = numerator / (k * uy - ux)
       if ((N >= 0 ? 1 : -1) !== sN) {
-        out.fill(Number.NaN, 0, FORCE_STATE)
+        for (let j = 0; j < FORCE_STATE; j++) out[index + j * stride] = Number.NaN
         return false
       }
     }
@@ -201,8 +208,14 @@ export function sliderCrankForceState(
   const rc = masses.crankCentre
   const mw = masses.counterweight
   const rw = masses.counterweightRadius
-  const cw = Math.cos(theta + masses.counterweightPhase)
-  const sw = Math.sin(theta + masses.counterweightPhase)
+  // The counterweight's direction θ + ψ by the angle-addition formulas (cos ψ, sin ψ kept from the last call).
+  if (masses.counterweightPhase !== phase.angle) {
+    phase.angle = masses.counterweightPhase
+    phase.cos = Math.cos(phase.angle)
+    phase.sin = Math.sin(phase.angle)
+  }
+  const cw = c * phase.cos - s * phase.sin
+  const sw = s * phase.cos + c * phase.sin
   const crossA = a * c * Ay - a * s * Ax
   const gravityMoment = mc * rc * (c * gy - s * gx) + mw * rw * (cw * gy - sw * gx)
   const torque = masses.crankInertia * alpha + crossA - gravityMoment
@@ -230,26 +243,26 @@ export function sliderCrankForceState(
     masses.rodInertia * phiDdot -
     masses.crankInertia * alpha
   const wristShare = b > 0 ? (mr * g) / b : 0
-  out[F.LOAD] = P
-  out[F.ROD] = -(Fx * ux + Fy * uy)
-  out[F.ROD_AT_CRANK] = -(Ax * ux + Ay * uy)
-  out[F.SIDE] = N
-  out[F.FRICTION] = fr
-  out[F.WRIST_X] = Fx
-  out[F.WRIST_Y] = Fy
-  out[F.PIN_X] = pinX
-  out[F.PIN_Y] = pinY
-  out[F.PIN_RADIAL] = pinX * c + pinY * s
-  out[F.PIN_TANGENTIAL] = -pinX * s + pinY * c
-  out[F.BEARING_X] = -fOx
-  out[F.BEARING_Y] = -fOy
-  out[F.TORQUE] = rotation * torque
-  out[F.POWER] = torque * omega
-  out[F.LOAD_TORQUE] = rotation * (-P * dx)
-  out[F.RECIPROCATING] = -(ms + wristShare) * aB
-  out[F.SHAKE_X] = shakeX
-  out[F.SHAKE_Y] = shakeY
-  out[F.SHAKE_MOMENT] = shakeMoment
+  out[index + F.LOAD * stride] = P
+  out[index + F.ROD * stride] = -(Fx * ux + Fy * uy)
+  out[index + F.ROD_AT_CRANK * stride] = -(Ax * ux + Ay * uy)
+  out[index + F.SIDE * stride] = N
+  out[index + F.FRICTION * stride] = fr
+  out[index + F.WRIST_X * stride] = Fx
+  out[index + F.WRIST_Y * stride] = Fy
+  out[index + F.PIN_X * stride] = pinX
+  out[index + F.PIN_Y * stride] = pinY
+  out[index + F.PIN_RADIAL * stride] = pinX * c + pinY * s
+  out[index + F.PIN_TANGENTIAL * stride] = -pinX * s + pinY * c
+  out[index + F.BEARING_X * stride] = -fOx
+  out[index + F.BEARING_Y * stride] = -fOy
+  out[index + F.TORQUE * stride] = rotation * torque
+  out[index + F.POWER * stride] = torque * omega
+  out[index + F.LOAD_TORQUE * stride] = rotation * (-P * dx)
+  out[index + F.RECIPROCATING * stride] = -(ms + wristShare) * aB
+  out[index + F.SHAKE_X * stride] = shakeX
+  out[index + F.SHAKE_Y * stride] = shakeY
+  out[index + F.SHAKE_MOMENT * stride] = shakeMoment
   return true
 }
 
@@ -266,7 +279,8 @@ export class SliderCrankForceSweep {
   /** True at a point where friction locks the guide. */
   locked = 0
   private readonly kin = new Float64Array(SLIDER_CRANK_STATE)
-  private readonly out = new Float64Array(FORCE_STATE)
+  /** All slots in one slot-major buffer; `slots` are views of it. */
+  private readonly buffer: Float64Array
 
   constructor(linkage: SliderCrankLinkage, input: SliderCrankForceInput, timing: StrokeTiming | null, count: number) {
     if (!Number.isInteger(count) || count < 2) throw new LinkageError('invalid-number', `A force sweep needs a whole number of at least 2 crank angles, got ${count}`)
@@ -279,7 +293,8 @@ export class SliderCrankForceSweep {
     this.timing = timing
     this.count = count
     this.crankAngle = new Float64Array(count)
-    this.slots = Array.from({ length: FORCE_STATE }, () => new Float64Array(count))
+    this.buffer = new Float64Array(FORCE_STATE * count)
+    this.slots = Array.from({ length: FORCE_STATE }, (_, j) => this.buffer.subarray(j * count, (j + 1) * count))
   }
 
   /** Recompute over a range at a crank speed (magnitude, rad/s) and angular acceleration (sense of rotation). Returns this. */
@@ -298,16 +313,15 @@ export class SliderCrankForceSweep {
   }
 
   private compute(speed: number, angularAcceleration: number): this {
-    const { linkage, input, timing, count, crankAngle, kin, out, slots } = this
+    const { linkage, input, timing, count, crankAngle, kin, buffer } = this
     const omega = linkage.rotation * speed
     const alpha = linkage.rotation * angularAcceleration
     let locked = 0
-    // One crank angle per step: kinematic state by closed form, then the forces, copied slot by slot.
+    // One crank angle per step: the kinematic state by closed form, then the forces written straight into their slots.
     for (let i = 0; i < count; i++) {
       const theta = crankAngle[i]!
-      sliderCrankState(linkage, theta, kin)
-      if (!sliderCrankForceState(linkage, input, timing, theta, omega, alpha, kin, out)) locked++
-      for (let j = 0; j < FORCE_STATE; j++) slots[j]![i] = out[j]!
+      sliderCrankForceKinematics(linkage, theta, kin)
+      if (!sliderCrankForceState(linkage, input, timing, theta, omega, alpha, kin, buffer, i, count)) locked++
     }
     this.locked = locked
     return this

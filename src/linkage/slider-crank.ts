@@ -244,6 +244,54 @@ export function sliderCrankState(linkage: SliderCrankLinkage, theta: number, out
   return true
 }
 
+/** Slots the force analysis adds to the state: cos φ, sin φ of the rod and cos θ, sin θ of the crank. */
+export const ROD_COS = 7
+export const ROD_SIN = 8
+export const CRANK_COS = 9
+export const CRANK_SIN = 10
+
+/**
+ * The state the force analysis takes at θ: POSITION, DX, DDX, DPHI, DDPHI and the
+ * four slots above (ROD_ANGLE and TRANSMISSION are not needed and, on a straight
+ * path, not written: that saves the sweep an atan2 and an acos a point). The same
+ * closed form as the full state; a test holds the two together. No allocation.
+ */
+export function sliderCrankForceKinematics(linkage: SliderCrankLinkage, theta: number, out: Float64Array): boolean {
+  if (linkage.equivalentFourBar !== null) {
+    // Arc path: the full state, then the cosines (its four-bar scratch is spent by now).
+    if (!sliderCrankState(linkage, theta, out)) return false
+    out[ROD_COS] = Math.cos(out[ROD_ANGLE]!)
+    out[ROD_SIN] = Math.sin(out[ROD_ANGLE]!)
+    out[CRANK_COS] = Math.cos(theta)
+    out[CRANK_SIN] = Math.sin(theta)
+    return true
+  }
+  const { crank, rod, offset, sliderSide: side } = linkage
+  const s = Math.sin(theta)
+  const c = Math.cos(theta)
+  const u = crank * s - offset
+  const rod2 = rod * rod
+  const disc = rod2 - u * u
+  if (!(disc > -ROOT_TOLERANCE * rod2)) {
+    out.fill(Number.NaN, 0, CRANK_SIN + 1)
+    return false
+  }
+  const root = disc > 0 ? Math.sqrt(disc) : 0
+  const ac = crank * c
+  const as = crank * s
+  const root3 = root * root * root
+  out[POSITION] = ac + side * root
+  out[DX] = -as - (side * u * ac) / root
+  out[DDX] = -ac - side * ((ac * ac - u * as) / root + (u * u * ac * ac) / root3)
+  out[DPHI] = (-side * ac) / root
+  out[DDPHI] = (side * as) / root - (side * ac * ac * u) / root3
+  out[ROD_COS] = (side * root) / rod
+  out[ROD_SIN] = -u / rod
+  out[CRANK_COS] = c
+  out[CRANK_SIN] = s
+  return true
+}
+
 /** The angle between two lines (not directions), rad in [0, π/2]. */
 function foldedAngle(a: number, b: number): number {
   const mu = includedAngle(a, b)

@@ -16,6 +16,16 @@ import {
   MASSLESS,
   NO_LOAD,
   SLIDER_CRANK_STATE,
+  POSITION,
+  DX,
+  DDX,
+  DPHI,
+  DDPHI,
+  ROD_ANGLE,
+  ROD_COS,
+  ROD_SIN,
+  CRANK_COS,
+  CRANK_SIN,
   analyseSliderCrank,
   analyseSliderCrankForces,
   arcSliderForceInput,
@@ -25,6 +35,7 @@ import {
   loadTable,
   sliderCrank,
   sliderCrankForceState,
+  sliderCrankForceKinematics,
   sliderCrankState,
   type SliderCrankForceInput,
   type SliderCrankMasses,
@@ -38,7 +49,7 @@ const rpm = (n: number): number => (n * 2 * Math.PI) / 60
 function forcesAt(linkage: ReturnType<typeof sliderCrank>, input: SliderCrankForceInput, theta: number, omega: number, alpha = 0): Float64Array {
   const kin = new Float64Array(SLIDER_CRANK_STATE)
   const out = new Float64Array(FORCE_STATE)
-  sliderCrankState(linkage, theta, kin)
+  sliderCrankForceKinematics(linkage, theta, kin)
   sliderCrankForceState(linkage, input, null, theta, omega, alpha, kin, out)
   return out
 }
@@ -217,6 +228,22 @@ describe('the power balance (virtual work), an independent referee', () => {
       work += -out[F.LOAD]! * (geometry(t + Math.PI / steps).bx - geometry(t - Math.PI / steps).bx)
     }
     expectClose(result.loadWork!, work, { rel: 1e-6 })
+  })
+})
+
+describe('the force analysis’s lean kinematic state', () => {
+  it('should agree with the full state (straight and arc paths) and give the rod’s and crank’s direction cosines', () => {
+    for (const linkage of [sliderCrank({ crank: 0.05, rod: 0.2, offset: 0.012, sliderSide: -1 }), sliderCrank({ crank: 0.04, rod: 0.16, offset: 0.01, pathRadius: 0.5 })]) {
+      const full = new Float64Array(SLIDER_CRANK_STATE)
+      const lean = new Float64Array(SLIDER_CRANK_STATE)
+      for (let k = 0; k < 72; k++) {
+        const theta = (k * 2 * Math.PI) / 72 + 0.013
+        sliderCrankState(linkage, theta, full)
+        sliderCrankForceKinematics(linkage, theta, lean)
+        for (const slot of [POSITION, DX, DDX, DPHI, DDPHI]) expectClose(lean[slot], full[slot]!, { rel: 1e-13, abs: 1e-15 })
+        expectClose([lean[ROD_COS], lean[ROD_SIN], lean[CRANK_COS], lean[CRANK_SIN]], [Math.cos(full[ROD_ANGLE]!), Math.sin(full[ROD_ANGLE]!), Math.cos(theta), Math.sin(theta)], { abs: 1e-14 })
+      }
+    }
   })
 })
 

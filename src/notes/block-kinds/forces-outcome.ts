@@ -16,6 +16,7 @@ import {
   ROD_ANGLE,
   SLIDER_CRANK_STATE,
   fourBarState,
+  sliderCrankForceKinematics,
   sliderCrankForceState,
   sliderCrankState,
   type FourBarAnalysis,
@@ -247,6 +248,8 @@ function sliderCrankForceMethod(
   const omega = linkage.rotation * f.kinematics.speed
   const alpha = linkage.rotation * f.kinematics.angularAcceleration
   sliderCrankState(linkage, theta, kin)
+  const phi = kin[ROD_ANGLE]!
+  sliderCrankForceKinematics(linkage, theta, kin)
   sliderCrankForceState(linkage, f.input, f.timing, theta, omega, alpha, kin, out)
   const at = `${source.convention.label.replace(/^crank angle/, 'θ')} = ${showQuantity(toDisplay(source, theta), 'angle', meta.units, meta.digits)}`
   const N = (si: number): string => tex(meta, si, 'force')
@@ -269,7 +272,6 @@ function sliderCrankForceMethod(
     result: `F_x = ${N(out[F.WRIST_X]!)},\\quad F_y = ${N(out[F.WRIST_Y]!)}`,
     note: 'F is the force of the rod on the slider at the wrist pin; a_B the slider’s acceleration along +x, f the guide friction. F_y follows from the rod’s moment balance about its centre of mass with the guide normal force N (see the derivation in DEVELOPERS.md).',
   })
-  const phi = kin[ROD_ANGLE]!
   steps.push({
     label: 'Rod force',
     formula: 'S = -(F_x\\cos\\varphi + F_y\\sin\\varphi)',

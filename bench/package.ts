@@ -12,19 +12,20 @@ import remarkRehype from 'remark-rehype'
 import { unified } from 'unified'
 import { VFile } from 'vfile'
 import { buildNote } from '../src/build.js'
+import { dataReader } from '../src/cli/data-files.js'
 import { TOOL } from '../src/version.js'
 import { median, record } from './measure.js'
 
 const root = process.cwd()
 // Charts and drawings are measured on their own (bench/figures.ts): this is the calculation layer's price.
 const withoutFigures = (text: string) => text.replace(/```(?:chart|drawing)[^\n]*\n[\s\S]*?\n```\n/g, '')
-const notes = ['reports/carton-pusher.md', 'reports/sieve-rocker.md'].map((path) => ({ path, text: withoutFigures(readFileSync(join(root, path), 'utf8')) }))
+const notes = ['reports/carton-pusher.md', 'reports/sieve-rocker.md', 'reports/plunger-pump.md', 'reports/air-agitator.md'].map((path) => ({ path, text: withoutFigures(readFileSync(join(root, path), 'utf8')) }))
 const template = readFileSync(join(root, 'templates/package.html'), 'utf8')
 
 async function buildAll(): Promise<void> {
   for (const note of notes) {
     const file = new VFile({ path: note.path, value: note.text })
-    const built = await buildNote(file, { tool: TOOL, notePath: note.path, template, commit: 'bench' })
+    const built = await buildNote(file, { tool: TOOL, notePath: note.path, template, commit: 'bench', readData: dataReader(join(root, note.path)) })
     if (!built.html) throw new Error(`${note.path} did not build`)
   }
 }
@@ -58,7 +59,7 @@ export async function runPackageBench(): Promise<void> {
   const bare = mid(bareTimes)
   const node = await median(() => wall(process.execPath, ['-e', '0']), 7, 1)
   const check = await median(() => wall(process.execPath, ['bin/linkwright.js', 'check', 'reports/sieve-rocker.md']), 7, 1)
-  record('Package build (the demo notes without their charts and drawings, HTML only, in process)', [
+  record('Package build (the four demo notes without their charts and drawings, HTML only, in process)', [
     { name: 'plain unified pipeline (blocks left as code)', value: bare, unit: 'ms' },
     { name: 'linkwright HTML build, first in process', value: cold, unit: 'ms', note: 'includes first-use costs', ratio: { value: cold / bare, of: '× the plain pipeline’s time', better: 'lower' } },
     { name: 'linkwright HTML build, warm', value: warm, unit: 'ms', ratio: { value: warm / bare, of: '× the plain pipeline’s time', better: 'lower', target: 4 } },

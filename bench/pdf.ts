@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { VFile } from 'vfile'
 import { buildNote } from '../src/build.js'
+import { dataReader } from '../src/cli/data-files.js'
 import { findBrowser } from '../src/pdf/browser.js'
 import { printPackages, type PrintJob } from '../src/pdf/print.js'
 import { writeFolder } from '../src/cli/files.js'
@@ -24,7 +25,8 @@ export async function runPdfBench(): Promise<void> {
   const dir = mkdtempSync(join(tmpdir(), 'linkwright-bench-pdf-'))
   const note = readFileSync(join(root, 'reports/carton-pusher.md'), 'utf8')
   const template = readFileSync(join(root, 'templates/package.html'), 'utf8')
-  const built = await buildNote(new VFile({ path: 'p.md', value: note }), { tool: TOOL, notePath: 'p.md', template, commit: 'bench' })
+  const built = await buildNote(new VFile({ path: 'p.md', value: note }), { tool: TOOL, notePath: 'p.md', template, commit: 'bench', readData: dataReader(join(root, 'reports/carton-pusher.md')) })
+  if (!built.html) throw new Error('reports/carton-pusher.md did not build')
   const files = new Map<string, string | Uint8Array>([
     ['index.html', built.html!],
     ['assets/package.css', readFileSync(join(root, 'templates/package.css'), 'utf8')],

@@ -83,7 +83,8 @@ export function interpolate(load: Load, x: number): number {
   if (load.abscissa === 'angle') {
     // A table over one turn: reduce into [xs[0], xs[0] + 2π) and close the last row onto the first.
     const first = xs[0]!
-    t = first + ((((x - first) % TAU) + TAU) % TAU)
+    const d = x - first
+    t = first + (d - TAU * Math.floor(d / TAU))
     if (t > xs[n - 1]!) {
       const span = first + TAU - xs[n - 1]!
       const f = span > 0 ? (t - xs[n - 1]!) / span : 0

@@ -11,7 +11,7 @@
  */
 import { LinkageError, requireFinite } from './errors.js'
 import { sliderLoadForce, type Load } from './loads.js'
-import { wrapTurn } from './math.js'
+import { TAU } from './math.js'
 import { CRANK_COS, CRANK_SIN, DDPHI, DDX, DPHI, DX, POSITION, ROD_COS, ROD_SIN, SLIDER_CRANK_STATE, sliderCrankForceKinematics, type SliderCrankLinkage } from './slider-crank.js'
 
 /** Masses of a slider-crank (kg, m, kg·m²). */
@@ -166,9 +166,9 @@ export function sliderCrankForceState(
   const aGx = aAx + g * (-phiDdot * uy - phiDot * phiDot * ux)
   const aGy = aAy + g * (phiDdot * ux - phiDot * phiDot * uy)
   // The load, on the stroke the crank angle is in.
-  const outstroke = timing
-    ? wrapTurn(rotation * (theta - timing.innerAngle)) <= timing.outstrokeAngle + 1e-12
-    : v * side > 0
+  // Crank travel since the inner dead centre, in [0, 2π): floor, not %, which is a library call in a hot loop.
+  const since = timing ? rotation * (theta - timing.innerAngle) : 0
+  const outstroke = timing ? since - TAU * Math.floor(since / TAU) <= timing.outstrokeAngle + 1e-12 : v * side > 0
   const travel = timing ? Math.abs(timing.outerPosition - x) : 0
   const P = sliderLoadForce(load, theta, x, travel, outstroke, side)
   // Slider: Fx + f + P + ms·gx = ms·aB; Fy + N + ms·gy = 0, with f = k·N.

@@ -53,6 +53,7 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
     schema: RESULTS_SCHEMA,
     tool: { name: model.tool.name, version: model.tool.version },
     fingerprint: model.fingerprint,
+    dataFiles: model.dataFiles.map((f) => ({ path: f.path, sha256: f.sha256 })),
     note: notePath,
     document: {
       title: meta.title,

@@ -60,7 +60,21 @@ export { analyseFourBar, type FourBarAnalysis, type FourBarExtremes } from './fo
 export { FourBarSweep } from './four-bar-sweep.js'
 export { eccentric, type EccentricInput, type EccentricLinkage } from './eccentric.js'
 export { findExtreme, extremesOf, inRange, type Extremes } from './extremes.js'
-export { synthesiseSliderCrank, type SliderCrankSynthesis } from './synthesis.js'
+export {
+  synthesiseSliderCrank,
+  sliderCrankAtOffset,
+  sliderCrankFamily,
+  bestTransmissionSliderCrank,
+  sliderCrankRange,
+  sliderCrankWith,
+  inlineSliderCrank,
+  excessAngle,
+  type SliderCrankSynthesis,
+  type SliderCrankDesign,
+  type FeasibleInterval,
+  type InlineDesign,
+} from './synthesis.js'
+export { crankRockerAt, bestCrankRocker, unitTimeRatioCrankRocker, functionGenerator, chebyshevPoints, type CrankRockerDesign, type FunctionGenerator } from './four-bar-synthesis.js'
 export { constantLoad, interpolate, loadTable, sliderLoadForce, NO_LOAD, type Load, type LoadAbscissa, type LoadSense, type LoadStroke } from './loads.js'
 export {
   F,

@@ -28,6 +28,9 @@ export interface CrankRockerDesign {
   readonly timeRatio: number
   readonly transmissionWorst: number
   readonly circuit: Circuit
+  /** The pivot's place t on its circle (rad about the circle's centre) and which of the two circles through B1, B2. */
+  readonly place: number
+  readonly family: 0 | 1
 }
 
 /**
@@ -72,7 +75,7 @@ export function crankRockerAt(swing: number, timeRatio: number, scale: { readonl
   // ratio, and the transmission angle's extremes sit at θ2 = 0 and 180° (closed form).
   const toggles = crankRockerToggles(lengths.ground, lengths.input, lengths.coupler, lengths.output)
   if (Math.abs(toggles.swing - swing) > 1e-7 || Math.abs(toggles.timeRatio - timeRatio) > 1e-7 * timeRatio) return null
-  return { ...lengths, pivotAngle: Math.atan2(-oy, -ox), swing: toggles.swing, timeRatio: toggles.timeRatio, transmissionWorst: toggles.transmissionWorst, circuit: 'open' }
+  return { ...lengths, pivotAngle: Math.atan2(-oy, -ox), swing: toggles.swing, timeRatio: toggles.timeRatio, transmissionWorst: toggles.transmissionWorst, circuit: 'open', place: t, family }
 }
 
 /**

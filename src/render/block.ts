@@ -262,10 +262,10 @@ function chartFigure(block: CalcBlock, outcome: BlockOutcome, context: RenderCon
   const label = `Chart: ${chart.title ? `${chart.title}: ` : ''}${what}${limitText ? `; limit ${limitText}` : ''}`
   // Marker tags on the chart, spelt out once.
   const tags = [...new Map(chart.markers.map((m) => [m.short, m.label])).entries()].map(([short, words]) => (short === words ? words : `${short} ${words}`))
-  const caption: (string | Element)[] = [`${what}; ${chart.samples} points of the core’s sweep`]
+  const caption: (string | Element)[] = [`${what}; ${chart.source ?? `${chart.samples} points of the core’s sweep`}`]
   if (chart.angles) caption.push(`; crank angle ${chart.angles}`)
   if (tags.length > 0) caption.push(`; dashed rules: ${tags.join(', ')}`)
-  if (chart.peaks.length > 0) caption.push('; points mark the exact greatest and least values found by the analysis')
+  if (chart.peaks.length > 0) caption.push(chart.source ? '; points mark the greatest values plotted' : '; points mark the exact greatest and least values found by the analysis')
   if (limitText) caption.push(`; red dashed line: the limit, ${limitText}${chart.limit!.symmetric ? ' (both signs)' : ''}${chart.limit!.source ? ` (${chart.limit!.source})` : ''}, with any stretch that breaks it shaded`)
   if (chart.unbounded.length > 0) caption.push('; the value axis is cut: the rates grow without bound at the limit angles')
   if (rendered) caption.push('. Vega-lite spec: ', h('a', { href: rendered.specFile }, h('code', rendered.specFile)))

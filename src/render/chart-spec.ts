@@ -69,12 +69,19 @@ export function chartSpec(chart: ChartOutcome): Spec {
 function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: boolean, offset = 0): Spec {
   const top = offset === 0
   // Long form, one row per point; `i` keeps the sweep order (a path's x is not monotonic).
-  const rows: { x: number; y: number; series: string; i: number }[] = []
+  // A gap (no value: no linkage there) starts a new piece of line rather than a bridge across it.
+  const rows: { x: number; y: number; series: string; i: number; piece: number }[] = []
   for (const s of series) {
+    let piece = 0
+    let gap = false
     for (let i = 0; i < chart.x.values.length; i++) {
       const x = chart.x.values[i]!
       const y = s.values[i]!
-      if (Number.isFinite(x) && Number.isFinite(y)) rows.push({ x: round(x), y: round(y), series: short(s.label, s.unit), i })
+      if (Number.isFinite(x) && Number.isFinite(y)) {
+        if (gap) piece++
+        gap = false
+        rows.push({ x: round(x), y: round(y), series: short(s.label, s.unit), i, piece })
+      } else gap = true
     }
   }
   const names = series.map((s) => short(s.label, s.unit))
@@ -103,6 +110,7 @@ function panel(chart: ChartOutcome, series: readonly ChartSeries[], showXTitle: 
       color: { field: 'series', type: 'nominal', scale: { domain: names, range: styles.map((s) => s.color) }, legend: series.length > 1 ? {} : null },
       strokeDash: { field: 'series', type: 'nominal', scale: { domain: names, range: styles.map((s) => [...s.dash]) }, legend: series.length > 1 ? {} : null },
       order: { field: 'i', type: 'quantitative' },
+      detail: { field: 'piece', type: 'nominal' },
     },
   }
   const layers: Spec[] = []

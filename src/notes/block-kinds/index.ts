@@ -9,6 +9,8 @@ import { drawingKind } from './drawing.js'
 import { checksKind } from './checks.js'
 import { eccentricKind } from './eccentric.js'
 import { columnKind } from './column.js'
+import { crankRockerSynthesisKind } from './crank-rocker-synthesis.js'
+import { functionGeneratorKind } from './function-generator.js'
 import { flywheelKind } from './flywheel.js'
 import { forcesKind } from './forces.js'
 import { pinBearingKind } from './pin-bearing.js'
@@ -21,7 +23,7 @@ import { tableKind } from './table.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [designInputsKind, synthesisKind, sliderCrankKind, eccentricKind, fourBarKind, forcesKind, flywheelKind, columnKind, pinBearingKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
+  [designInputsKind, synthesisKind, crankRockerSynthesisKind, functionGeneratorKind, sliderCrankKind, eccentricKind, fourBarKind, forcesKind, flywheelKind, columnKind, pinBearingKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

@@ -38,8 +38,12 @@ export interface ReadInputs {
 /** Block ids the inputs of a block use. */
 export function inputDependencies(block: CalcBlock, specs: readonly InputSpec[], blockIds: ReadonlySet<string>): Set<string> {
   const local = new Set(specs.map((s) => s.name))
+  const bySpec = new Map(specs.map((s) => [s.name, s]))
   const ids = new Set<string>()
   for (const entry of block.body.entries) {
+    // A choice word (`best-transmission`) is not an expression, unless it is a reference to another block's word.
+    const spec = bySpec.get(entry.name)
+    if (spec?.kind === 'choice' && (spec.choices ?? []).includes(entry.value)) continue
     const node = tryParse(entry.value)
     if (!node) continue
     for (const name of symbolsOf(node)) if (blockIds.has(name) && !local.has(name)) ids.add(name)
@@ -128,6 +132,14 @@ export function readInputs(
       const base = { name: spec.name, label: spec.label, symbol: spec.symbol, expression: text, source: entry?.source ?? null, place, given: entry !== undefined }
       if (spec.kind === 'choice' || (spec.word !== undefined && text === spec.word)) {
         const allowed = spec.choices ?? [spec.word!]
+        // A choice may be another block's word result (`circuit: design.circuit`).
+        const reference = spec.kind === 'choice' && !allowed.includes(text) && plainReference(text) ? evaluateText(text, context.scope, local, context.blockIds) : null
+        if (reference?.ok && typeof reference.value === 'string' && allowed.includes(reference.value)) {
+          words[spec.name] = reference.value
+          local[spec.name] = reference.value
+          values.set(spec.name, { ...base, value: { type: 'text', text: reference.value } })
+          continue
+        }
         if (!allowed.includes(text)) {
           reportError(file, 'invalid-choice', messages['invalid-choice'](spec.name, text, allowed), place ?? block.place)
           ok = false

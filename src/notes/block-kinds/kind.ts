@@ -210,6 +210,8 @@ export interface ChartOutcome {
   /** Same scale on both axes (a path drawn to scale). */
   readonly equalAspect: boolean
   readonly samples: number
+  /** What the points are, for a chart of a design block's own numbers (not a linkage's sweep). */
+  readonly source?: string
 }
 
 /** A pose to draw: the joints at one input angle. */

@@ -95,3 +95,5 @@ export { column, sectionProperties, type ColumnPlane, type ColumnResult, type Co
 export { bearingPressure, slidingSpeed } from './bearing.js'
 export { harmonic, integrate, mean, rms } from './cycle.js'
 export { arcSliderForceInput } from './arc-slider-forces.js'
+export { SLIDER_CRANK_RESPONSE, CRANK_ROCKER_RESPONSE, spread, monteCarlo, sampleStatistics, clearanceEffect, type Toleranced, type Response, type ResultSpread, type MonteCarlo } from './tolerance.js'
+export { crankRockerToggles } from './four-bar-synthesis.js'

@@ -74,6 +74,8 @@ export interface NamedValue {
   readonly value: Value
   /** A word that says how the value was found (e.g. "closed form", "sweep and bisection"). */
   readonly how?: string
+  /** False when a block's own table shows the value (the results table leaves it out; it stays in results.json and usable by name). */
+  readonly listed?: boolean
 }
 
 /** An input as written in the note. */

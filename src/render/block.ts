@@ -35,7 +35,8 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, block.kind === 'given' ? 'Design inputs' : 'Inputs'))
   for (const data of outcome.data) parts.push(dataTable(data, context))
   if (outcome.method.length > 0) parts.push(methodList(outcome, context))
-  if (outcome.results.length > 0) parts.push(resultsTable(outcome.results, context))
+  const listed = outcome.results.filter((r) => r.listed !== false)
+  if (listed.length > 0) parts.push(resultsTable(listed, context))
   if (outcome.extremes.length > 0) parts.push(extremesTable(outcome, context))
   if (outcome.warnings.length > 0) {
     parts.push(

@@ -57,9 +57,10 @@ describe('linkwright build', () => {
       ['PASS', false],
       ['PASS', false],
       ['PASS', false],
+      ['PASS', false],
       ['FAIL', true],
     ])
-    expect(results.summary).toMatchObject({ checks: 6, passed: 6, failed: 0, informative: { checks: 1, failed: 1 }, gatePasses: true, errors: 0 })
+    expect(results.summary).toMatchObject({ checks: 7, passed: 7, failed: 0, informative: { checks: 1, failed: 1 }, gatePasses: true, errors: 0 })
     expect(results.caution).toMatch(/^These calculations describe machinery that can hurt people\..*does not claim compliance with any code or standard\.$/)
   })
 
@@ -127,13 +128,13 @@ describe('linkwright check', () => {
     writeFileSync(join(dir2, 'reports/carton-pusher.md'), readFileSync(join(dir2, 'reports/carton-pusher.md'), 'utf8').replace(' (informative) ;', ' ;'))
     const result = run(['check'], dir2)
     expect(result.code).toBe(1)
-    expect(result.stdout).toContain('reports/carton-pusher.md: 6 of 7 checks pass (1 FAIL)')
+    expect(result.stdout).toContain('reports/carton-pusher.md: 7 of 8 checks pass (1 FAIL)')
     expect(result.stdout).toMatch(/reports\/carton-pusher\.md:\d+ {2}FAIL {2}option B quick return: 1\.0000, limit ≥ 1\.1500/)
   })
 
   it('should show an informative FAIL apart and pass the gate, with the caution', () => {
     const result = run(['check'], workspace())
-    expect(result.stdout).toContain('reports/carton-pusher.md: 6 of 6 checks pass; 1 informative check, not part of the gate (1 FAIL)')
+    expect(result.stdout).toContain('reports/carton-pusher.md: 7 of 7 checks pass; 1 informative check, not part of the gate (1 FAIL)')
     expect(result.stdout).toMatch(/FAIL \(informative\) {2}option B quick return/)
     expect(result.stdout).toContain('Caution: These calculations describe machinery that can hurt people.')
     expect(result.code).toBe(0)

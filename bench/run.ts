@@ -1,10 +1,11 @@
 /**
  * `npm run bench`: every benchmark in one process, with ratios measured in the
- * same run. `npm run bench -- core` (dynamics, package, figures, pdf) runs one;
+ * same run. `npm run bench -- core` (dynamics, tolerance, package, figures, pdf) runs one;
  * `-- --json` prints one JSON object instead of Markdown tables.
  */
 import { runCoreBench } from './core.js'
 import { runDynamicsBench } from './dynamics.js'
+import { runToleranceBench } from './tolerance.js'
 import { json, markdown } from './measure.js'
 import { runPackageBench } from './package.js'
 import { runFiguresBench } from './figures.js'
@@ -16,6 +17,7 @@ const only = args.filter((a) => !a.startsWith('--'))
 const wanted = (name: string) => only.length === 0 || only.includes(name)
 if (wanted('core')) await runCoreBench()
 if (wanted('dynamics')) await runDynamicsBench()
+if (wanted('tolerance')) await runToleranceBench()
 if (wanted('package')) await runPackageBench()
 if (wanted('figures')) await runFiguresBench()
 if (wanted('pdf')) await runPdfBench()

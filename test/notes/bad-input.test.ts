@@ -40,7 +40,7 @@ describe('bad input', () => {
       BODY_LINE,
       1,
       'unknown-block-kind',
-      messages['unknown-block-kind']('slidercrank', ['design-inputs', 'slider-crank-synthesis', 'crank-rocker-synthesis', 'function-generator', 'slider-crank', 'eccentric', 'four-bar', 'forces', 'flywheel', 'column', 'pin-bearing', 'tolerances', 'checks', 'table', 'chart', 'drawing', 'assumptions', 'conclusions']),
+      messages['unknown-block-kind']('slidercrank', ['design-inputs', 'slider-crank-synthesis', 'crank-rocker-synthesis', 'function-generator', 'slider-crank', 'eccentric', 'four-bar', 'forces', 'flywheel', 'column', 'pin-bearing', 'tolerances', 'study', 'checks', 'table', 'chart', 'drawing', 'assumptions', 'conclusions']),
     ])
   })
 

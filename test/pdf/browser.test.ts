@@ -56,8 +56,8 @@ describe('the HTML package in Chromium', () => {
       // As many drawings and charts as the note has blocks for.
       const source = readFileSync(join(dir, 'reports', `${note}.md`), 'utf8')
       expect(sizes.filter((s) => s.cls.includes('lw-drawing-svg'))).toHaveLength(source.match(/^```drawing\b/gm)?.length ?? 0)
-      // Chart blocks, and the blocks that always chart (a tolerances histogram, a synthesis family or error curve).
-      expect(sizes.filter((s) => s.cls.includes('marks')).length).toBe(source.match(/^```(?:chart|tolerances|crank-rocker-synthesis|function-generator)\b/gm)?.length ?? 0)
+      // Chart blocks, and the blocks that always chart (a tolerances histogram, a study of three values or more, a synthesis family or error curve).
+      expect(sizes.filter((s) => s.cls.includes('marks')).length).toBe(source.match(/^```(?:chart|tolerances|study|crank-rocker-synthesis|function-generator)\b/gm)?.length ?? 0)
       for (const size of sizes) {
         expect(size.width, size.cls).toBeGreaterThan(50)
         expect(size.height, size.cls).toBeGreaterThan(50)

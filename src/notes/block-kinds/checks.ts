@@ -96,14 +96,15 @@ export const checksKind: BlockKind = {
   },
 }
 
-type Common = Pick<CheckOutcome, 'label' | 'condition' | 'informative' | 'source' | 'line' | 'blockId'>
+export type Common = Pick<CheckOutcome, 'label' | 'condition' | 'informative' | 'source' | 'line' | 'blockId'>
 
 /** A check that could not be evaluated: counted and shown, with why. */
 function notEvaluated(common: Common, reason: string): CheckOutcome {
   return { ...common, status: 'not-evaluated', reason, actual: '—', limit: '—', margin: '—', actualSI: null, limitSI: null, unit: '', operator: '' }
 }
 
-function evaluateCheck(text: string, place: Position, context: EvaluationContext, common: Common): CheckOutcome {
+/** One condition judged in a context's scope (a study judges its checks in a scratch copy). */
+export function evaluateCheck(text: string, place: Position, context: EvaluationContext, common: Common): CheckOutcome {
   const { file } = context
   const fail = (ruleId: RuleId, reason: string): CheckOutcome => {
     reportError(file, ruleId, reason, place)

@@ -21,10 +21,11 @@ import { sliderCrankKind } from './slider-crank.js'
 import { synthesisKind } from './synthesis.js'
 import { tableKind } from './table.js'
 import { tolerancesKind } from './tolerances.js'
+import { studyKind } from './study.js'
 
 /** Every block kind by name. */
 export const blockKinds: ReadonlyMap<string, BlockKind> = new Map(
-  [designInputsKind, synthesisKind, crankRockerSynthesisKind, functionGeneratorKind, sliderCrankKind, eccentricKind, fourBarKind, forcesKind, flywheelKind, columnKind, pinBearingKind, tolerancesKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
+  [designInputsKind, synthesisKind, crankRockerSynthesisKind, functionGeneratorKind, sliderCrankKind, eccentricKind, fourBarKind, forcesKind, flywheelKind, columnKind, pinBearingKind, tolerancesKind, studyKind, checksKind, tableKind, chartKind, drawingKind, assumptionsKind, conclusionsKind].map((k) => [k.name, k]),
 )
 
 export type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'

@@ -290,7 +290,11 @@ export const tolerancesKind: BlockKind = {
       warnings,
       data,
       chart,
-      summary: [`${figures[0]!.name}_worst_min`, `${figures[0]!.name}_worst_max`, `${figures[0]!.name}_rss`, ...(required ? ['worst_case_within_required'] : [])],
+      summary: [
+        ...(kind === 'slider-crank' && clearance > 0 ? ['stroke_worst_min_with_clearance', 'stroke_worst_max_with_clearance'] : [`${figures[0]!.name}_worst_min`, `${figures[0]!.name}_worst_max`]),
+        `${figures[0]!.name}_rss`,
+        ...(required ? ['worst_case_within_required'] : []),
+      ],
       assumptions: [
         {
           text: distribution === 'normal'

@@ -11,7 +11,7 @@ import { messages } from '../messages.js'
 import { reportError, reportWarning } from '../report.js'
 import type { MethodStep, NamedValue } from '../types.js'
 import { toDisplay } from './angles.js'
-import { readInputs, type InputSpec } from './inputs.js'
+import { readInputs, ofAndReferences, type InputSpec } from './inputs.js'
 import { outcome, type BlockKind, type EvaluationContext } from './kind.js'
 import { withLinkage } from './linkage-common.js'
 import { asNamed } from './slider-crank-outcome.js'
@@ -47,14 +47,7 @@ export const columnKind: BlockKind = {
   name: 'column',
   label: 'Rod as a column',
   needsId: false,
-  dependencies(block, ids) {
-    const found = new Set<string>()
-    for (const e of block.body.entries) {
-      if (e.name === 'of' && ids.has(e.value)) found.add(e.value)
-      for (const m of e.value.matchAll(/([A-Za-z_][A-Za-z0-9_]*)\./g)) if (ids.has(m[1]!)) found.add(m[1]!)
-    }
-    return found
-  },
+  dependencies: ofAndReferences,
   evaluate(block, context) {
     const { file } = context
     const ofEntry = block.body.entries.find((e) => e.name === 'of')

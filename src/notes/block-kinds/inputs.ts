@@ -188,3 +188,13 @@ export function readInputs(
   if (!ok) return null
   return { values: specs.flatMap((s) => (values.has(s.name) ? [values.get(s.name)!] : [])), si, words }
 }
+
+/** The block named by `of:` and every block an entry's value refers to as `id.name`. */
+export function ofAndReferences(block: CalcBlock, ids: ReadonlySet<string>): Set<string> {
+  const found = new Set<string>()
+  for (const e of block.body.entries) {
+    if (e.name === 'of' && ids.has(e.value)) found.add(e.value)
+    for (const m of e.value.matchAll(/([A-Za-z_][A-Za-z0-9_]*)\./g)) if (ids.has(m[1]!)) found.add(m[1]!)
+  }
+  return found
+}

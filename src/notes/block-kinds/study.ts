@@ -23,7 +23,7 @@ import { reportError } from '../report.js'
 import type { CalcBlock, NamedValue } from '../types.js'
 import { evaluateCheck } from './checks.js'
 import { designChart } from './design-chart.js'
-import { citeSources } from './inputs.js'
+import { citeSources, ofAndReferences } from './inputs.js'
 import { outcome, type BlockKind, type BlockOutcome, type CheckOutcome, type DataTable, type EvaluationContext } from './kind.js'
 import { flag, publish, quantity } from './values.js'
 // The registry, read at evaluation time (the cycle with index.js is resolved by then).
@@ -37,14 +37,7 @@ export const studyKind: BlockKind = {
   name: 'study',
   label: 'Parameter study',
   needsId: true,
-  dependencies(block, ids) {
-    const found = new Set<string>()
-    for (const e of block.body.entries) {
-      if (e.name === 'of' && ids.has(e.value)) found.add(e.value)
-      for (const m of e.value.matchAll(/([A-Za-z_][A-Za-z0-9_]*)\./g)) if (ids.has(m[1]!)) found.add(m[1]!)
-    }
-    return found
-  },
+  dependencies: ofAndReferences,
   evaluate(block, context) {
     const { file, meta } = context
     const fail = (rule: Parameters<typeof reportError>[1], reason: string, place: BodyEntry['valuePlace']): null => {

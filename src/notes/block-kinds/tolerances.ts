@@ -35,7 +35,7 @@ import { reportError } from '../report.js'
 import type { MethodStep, NamedValue } from '../types.js'
 import { designChart } from './design-chart.js'
 import { linkageOf } from './forces.js'
-import { citeSources } from './inputs.js'
+import { citeSources, ofAndReferences } from './inputs.js'
 import { outcome, type BlockKind, type DataTable, type EvaluationContext } from './kind.js'
 import { withLinkage } from './linkage-common.js'
 import { flag, publish, quantity, tex, texBare } from './values.js'
@@ -90,14 +90,7 @@ export const tolerancesKind: BlockKind = {
   name: 'tolerances',
   label: 'Tolerances',
   needsId: true,
-  dependencies(block, ids) {
-    const found = new Set<string>()
-    for (const e of block.body.entries) {
-      if (e.name === 'of' && ids.has(e.value)) found.add(e.value)
-      for (const m of e.value.matchAll(/([A-Za-z_][A-Za-z0-9_]*)\./g)) if (ids.has(m[1]!)) found.add(m[1]!)
-    }
-    return found
-  },
+  dependencies: ofAndReferences,
   evaluate(block, context) {
     const found = linkageOf(block, context, 'tolerances', 'a slider-crank or four-bar block')
     if (!found) return null

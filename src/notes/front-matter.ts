@@ -4,7 +4,10 @@
  */
 import type { Position } from 'unist'
 import type { VFile } from 'vfile'
-import { LineCounter, isMap, parseDocument, type Node as YamlNode, type Pair } from 'yaml'
+import { LineCounter, isMap, parseDocument, visit, type Node as YamlNode, type Pair } from 'yaml'
+
+/** Most alias expansions read in a front matter (yaml's own bound on repeated aliases). */
+const MAX_ALIASES = 50
 import { messages } from './messages.js'
 import { KINDS, unitFitsKind, type QuantityKind } from './quantity.js'
 import { reportError, reportWarning } from './report.js'
@@ -72,7 +75,17 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
   }
   const pairs = new Map<string, Pair<YamlNode, YamlNode>>()
   for (const pair of doc.contents.items as Pair<YamlNode, YamlNode>[]) pairs.set(String((pair.key as { value?: unknown }).value), pair)
-  const raw = (doc.toJS() ?? {}) as Record<string, unknown>
+  let raw: Record<string, unknown>
+  try {
+    // Aliases may repeat a value a few times; an alias bomb is refused, not expanded.
+    raw = (doc.toJS({ maxAliasCount: MAX_ALIASES }) ?? {}) as Record<string, unknown>
+  } catch (error) {
+    let first: YamlNode | null = null
+    visit(doc, { Alias: (_, node) => void (first ??= node as YamlNode) })
+    const where = place(first)?.start ?? { line: firstLine, column: 1 }
+    reportError(file, 'front-matter-syntax', messages['front-matter-syntax'](`its aliases (\`*name\`) expand too far (${error instanceof Error ? error.message : String(error)}); write the values out`), where)
+    return emptyMeta
+  }
   const at = (field: string): Position | undefined => place(pairs.get(field)?.value ?? pairs.get(field)?.key)
   const bad = (field: string, detail: string): void => {
     reportError(file, 'front-matter-field', messages['front-matter-field'](field, detail), at(field))

@@ -67,6 +67,18 @@ const ALLOWED_NODES = new Set([
   'ConditionalNode',
 ])
 
+/**
+ * Functions a note may call: each works on scalars and quantities in a time
+ * that does not depend on its arguments, so no expression of a note can run
+ * long or take much memory. (mathjs's bignumber, fraction, formatting,
+ * combinatorics, matrix and string functions are left out for that reason.)
+ */
+export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
+  'abs', 'sqrt', 'cbrt', 'square', 'cube', 'exp', 'expm1', 'log', 'log10', 'log2', 'log1p', 'pow', 'hypot',
+  'sin', 'cos', 'tan', 'sec', 'csc', 'cot', 'asin', 'acos', 'atan', 'atan2', 'sinh', 'cosh', 'tanh', 'asinh', 'acosh', 'atanh',
+  'min', 'max', 'mean', 'sign', 'round', 'floor', 'ceil', 'fix', 'mod', 'to', 'number', 'unit',
+])
+
 const REFUSED_NODE_WORDS: Readonly<Record<string, string>> = {
   AssignmentNode: 'assignments',
   FunctionAssignmentNode: 'function definitions',
@@ -109,6 +121,13 @@ function parseChecked(text: string): MathNode {
       const what = REFUSED_NODE_WORDS[child.type] ?? child.type
       throw new Error(`${what} are not allowed in a design note; write a value or a formula`)
     }
+    if (child.type === 'FunctionNode') {
+      const fn = (child as unknown as { fn: MathNode }).fn
+      const name = fn.type === 'SymbolNode' ? (fn as unknown as { name: string }).name : null
+      if (name === null || !ALLOWED_FUNCTIONS.has(name)) {
+        throw new Error(`${name === null ? 'only a named function can be called' : `the function \`${name}\` is not available`}; a design note may call ${[...ALLOWED_FUNCTIONS].join(', ')}`)
+      }
+    }
     if (child.type === 'IndexNode' && !(child as unknown as { dotNotation: boolean }).dotNotation) {
       throw new Error('indexing with [ ] is not allowed; refer to results as block.result')
     }
@@ -127,6 +146,12 @@ export function evaluateExpression(node: MathNode, scope: Readonly<Record<string
   }
   // A Map scope keeps mathjs from writing into our objects.
   return code.evaluate(new Map(Object.entries(scope)))
+}
+
+/** True for a complex number, or a quantity whose number is complex. */
+export function isComplexValue(value: unknown): boolean {
+  if (math.isComplex(value)) return true
+  return isUnitValue(value) && math.isComplex((value as unknown as { value: unknown }).value)
 }
 
 /** True for a mathjs unit value. */

@@ -293,7 +293,8 @@ function extent(values: Float64Array): [number, number] {
 /** Ticks every 30°, 45° or 60° across an angle range. */
 function ticks(lo: number, hi: number): number[] {
   const span = hi - lo
-  const step = span > 300 ? 60 : span > 150 ? 30 : span > 60 ? 15 : 5
+  // Whole multiples of 60° past a turn, so a long range never gives more than about 24 ticks.
+  const step = span > 1440 ? 60 * Math.ceil(span / 1440) : span > 300 ? 60 : span > 150 ? 30 : span > 60 ? 15 : 5
   const out: number[] = []
   for (let t = Math.ceil(lo / step) * step; t <= hi + 1e-9; t += step) out.push(t)
   return out

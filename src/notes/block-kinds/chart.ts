@@ -103,7 +103,7 @@ export const chartKind: BlockKind = {
     if (size === null) return fail('expected `size:` as width x height in pixels, e.g. `640 x 220`', entries.get('size')?.valuePlace)
     const xRange = readRange(entries.get('x_range')?.value, xAxis.kind, context)
     const yRange = readRange(entries.get('y_range')?.value, series[0]!.kind, context)
-    if (xRange === undefined) return fail('expected `x_range:` as two quantities, e.g. `0 deg, 360 deg`', entries.get('x_range')?.valuePlace)
+    if (xRange === undefined) return fail('expected `x_range:` as two quantities, the first the smaller, e.g. `0 deg, 360 deg` (an angle range of at most ten turns)', entries.get('x_range')?.valuePlace)
     if (yRange === undefined) return fail('expected `y_range:` as two quantities of the first series’ kind', entries.get('y_range')?.valuePlace)
     const meanEntry = entries.get('mean')
     if (meanEntry && meanEntry.value !== 'yes' && meanEntry.value !== 'no') {
@@ -196,12 +196,16 @@ function readRange(text: string | undefined, kind: QuantityKind, context: Parame
   const parts = text.split(',').map((p) => p.trim())
   if (parts.length !== 2) return undefined
   const values: number[] = []
+  const si: number[] = []
   for (const part of parts) {
     const evaluated = evaluateText(part, context.scope, {}, context.blockIds)
     const reading = evaluated.ok ? readQuantity(evaluated.value, kind) : null
-    if (!reading?.ok) return undefined
+    if (!reading?.ok || !Number.isFinite(reading.si)) return undefined
+    si.push(reading.si)
     values.push(fromSI(reading.si, kind, displayUnit(kind, context.meta.units)))
   }
+  // An angle axis over more than ten turns draws nothing a reader can use.
+  if (kind === 'angle' && si[1]! - si[0]! > 20 * Math.PI) return undefined
   return values[0]! < values[1]! ? [values[0]!, values[1]!] : undefined
 }
 

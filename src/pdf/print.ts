@@ -58,16 +58,12 @@ export function headerFooter(job: PrintJob): { header: string; footer: string } 
 
 /**
  * Print every job with one browser, `concurrency` pages at a time (default: the
- * core count). The browser is closed when done, on error, and on Ctrl-C.
+ * core count). The browser is closed when done and on error; a browser that
+ * cannot start throws (with the reason), before any job is touched.
  */
 export async function printPackages(jobs: readonly PrintJob[], browserPath: string, concurrency = availableParallelism()): Promise<PrintResult[]> {
   if (jobs.length === 0) return []
   const running = await launchBrowser(browserPath)
-  const stop = () => {
-    void running.close().finally(() => process.exit(130))
-  }
-  process.once('SIGINT', stop)
-  process.once('SIGTERM', stop)
   try {
     const results: PrintResult[] = new Array(jobs.length)
     let next = 0
@@ -80,15 +76,18 @@ export async function printPackages(jobs: readonly PrintJob[], browserPath: stri
     await Promise.all(Array.from({ length: Math.max(1, Math.min(concurrency, jobs.length)) }, worker))
     return results
   } finally {
-    process.removeListener('SIGINT', stop)
-    process.removeListener('SIGTERM', stop)
     await running.close()
   }
 }
 
 async function printOne(running: RunningBrowser, job: PrintJob): Promise<PrintResult> {
   const blocked: string[] = []
-  const page = await running.browser.newPage()
+  let page: Awaited<ReturnType<RunningBrowser['browser']['newPage']>>
+  try {
+    page = await running.browser.newPage()
+  } catch (error) {
+    return { job, ok: false, error: `the browser gave no page (${error instanceof Error ? error.message : String(error)})`, pages: 0, blocked }
+  }
   try {
     const root = resolve(job.folder) + sep
     await page.setRequestInterception(true)

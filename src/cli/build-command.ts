@@ -11,19 +11,22 @@
  * into place: a note with errors, or a build that stops half-way, leaves the
  * previous package whole. The other notes still build.
  */
-import { readFileSync, readdirSync } from 'node:fs'
+import { existsSync, lstatSync, readFileSync, readdirSync } from 'node:fs'
 import { basename, extname, join, relative } from 'node:path'
 import { VFile } from 'vfile'
 import type { NoteModel } from '../notes/note.js'
+import { messages, SOURCE, type RuleId } from '../notes/messages.js'
 import type { ChartCache } from '../render/chart-svg.js'
 import { statusWords } from '../render/sections.js'
 import { tallyChecks, tallyWords } from '../notes/tally.js'
 import { COMMIT, TOOL } from '../version.js'
-import { findNotes, packageFolder, stageFolder, writeFileAtomic, type StagedFolder } from './files.js'
+import { codeOf, discardOpenStages, findNotes, ForeignFolderError, foreignContent, makeFolder, planFolders, stageFolder, tidyOutput, writeFileAtomic, type StagedFolder } from './files.js'
 import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
+import { lockOutput, releaseHeldLocks } from './lock.js'
 import { katexDist, templatePath } from './paths.js'
-import { report } from './reporter.js'
+import { noteFile, pathProblemFile, report } from './reporter.js'
+import { onStop } from './signals.js'
 
 /** Options of the build command. */
 export interface BuildOptions {
@@ -36,7 +39,7 @@ export interface BuildOptions {
 }
 
 /** Exit codes of the build command. */
-export const EXIT = { ok: 0, errors: 1, usage: 2, noBrowser: 3 } as const
+export const EXIT = { ok: 0, errors: 1, usage: 2, noBrowser: 3, output: 4 } as const
 
 /** Files every package carries, read once per run. */
 function assets(): Map<string, Uint8Array | string> {
@@ -80,29 +83,100 @@ interface Staged {
   readonly stem: string
 }
 
+/** Report a problem of a note's file or package at 1:1 of the note (an error unless said). */
+function fail(file: VFile, ruleId: RuleId, reason: string, fatal = true): void {
+  file.message(reason, { place: { line: 1, column: 1 }, ruleId, source: SOURCE }).fatal = fatal
+}
+
+/** Make sure `out` is a folder this build can write; a message and an exit code when not. */
+function prepareOutput(outDir: string): { code: number; text: string } | null {
+  let stat = null
+  try {
+    stat = lstatSync(outDir)
+  } catch {
+    // not there yet
+  }
+  if (stat !== null && !stat.isDirectory()) return { code: EXIT.usage, text: `linkwright build: --out ${outDir} is a file, not a folder; nothing was built\n` }
+  try {
+    makeFolder(outDir)
+  } catch (error) {
+    return { code: EXIT.output, text: `linkwright build: cannot create the output folder ${outDir} (${codeOf(error)}); nothing was built\n` }
+  }
+  return null
+}
+
 /** Run the build command; returns the exit code. */
 export async function buildCommand(options: BuildOptions, out: (text: string) => void, err: (text: string) => void): Promise<number> {
-  const { notes, missing, baseOf } = findNotes(options.paths)
-  for (const path of missing) err(`linkwright: cannot find ${path}\n`)
-  if (notes.length === 0) {
+  const found = findNotes(options.paths, [options.out])
+  for (const path of found.missing) err(`linkwright: cannot find ${path}\n`)
+  const files: VFile[] = found.problems.map((p) => pathProblemFile(p, messages['unreadable-note'](p.reason), p.fatal !== false))
+  let failed = found.missing.length > 0 || files.some((f) => f.messages.some((m) => m.fatal === true))
+  if (found.notes.length === 0) {
     err(`linkwright: no notes (.md) found in ${options.paths.join(', ')}\n`)
-    return missing.length > 0 ? EXIT.usage : EXIT.errors
+    err(report(files, { quiet: options.quiet }))
+    return found.missing.length > 0 ? EXIT.usage : EXIT.errors
   }
+  const unusable = prepareOutput(options.out)
+  if (unusable) {
+    err(unusable.text)
+    return unusable.code
+  }
+  let lock
+  try {
+    lock = await lockOutput(options.out, { waiting: (pid) => out(`waiting for the build running as process ${pid} to finish with ${options.out}/\n`) })
+  } catch (error) {
+    err(`linkwright build: cannot write into the output folder ${options.out} (${codeOf(error)}); nothing was built\n`)
+    return EXIT.output
+  }
+  tidyOutput(options.out)
+  const stopCleanup = onStop(() => {
+    discardOpenStages()
+    releaseHeldLocks()
+  })
+  try {
+    return await buildLocked(options, found, files, failed, out, err)
+  } finally {
+    stopCleanup()
+    lock.release()
+  }
+}
+
+/** The build proper, with the output folder locked. */
+async function buildLocked(
+  options: BuildOptions,
+  found: ReturnType<typeof findNotes>,
+  files: VFile[],
+  failedBefore: boolean,
+  out: (text: string) => void,
+  err: (text: string) => void,
+): Promise<number> {
+  let failed = failedBefore
   // The renderer is loaded only by commands that render.
   const { buildNote } = await import('../build.js')
   const template = readFileSync(templatePath('package.html'), 'utf8')
   const shared = assets()
   const cache = diskCache(join(options.out, '.cache', 'charts'))
-  const files: VFile[] = []
+  const { folders, clashes } = planFolders(found.notes, options.out, found.base)
+  const clashOf = new Map(clashes.map((c) => [c.path, c.reason]))
   const staged: Staged[] = []
-  let failed = missing.length > 0
 
   // 1. Build every note into a staged folder.
-  for (const path of notes) {
+  for (const path of found.notes) {
     const shown = relative(process.cwd(), path) || path
-    const file = new VFile({ path: shown, value: readFileSync(path, 'utf8') })
+    const read = noteFile(path, shown)
+    const file = read.file
     files.push(file)
-    const folder = packageFolder(options.out, path, baseOf.get(path) ?? '.')
+    if (read.problem !== null) {
+      fail(file, 'unreadable-note', messages['unreadable-note'](read.problem))
+      failed = true
+      continue
+    }
+    const folder = folders.get(path)
+    if (folder === undefined) {
+      fail(file, 'package-folder', messages['package-folder'](clashOf.get(path) ?? 'it has no package folder'))
+      failed = true
+      continue
+    }
     try {
       const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
       if (!built.ok || built.html === null) {
@@ -110,18 +184,29 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
         if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)
         continue
       }
+      // Checked before printing, and again when the package is put in place.
+      const foreign = foreignContent(folder)
+      if (foreign !== null) {
+        fail(file, 'package-folder', messages['package-folder'](`${foreign}, so the package is not written there; move those files or build into another --out`))
+        failed = true
+        continue
+      }
       const content = new Map(shared)
       content.set('index.html', built.html)
       content.set('results.json', `${JSON.stringify(built.results, null, 2)}\n`)
       for (const [name, text] of built.files) content.set(name, text)
-      staged.push({ file, folder, staged: stageFolder(folder, content), model: built.model, date: built.date, stem: basename(path, extname(path)) })
+      let stagedFolder: StagedFolder
+      try {
+        stagedFolder = stageFolder(folder, content)
+      } catch (error) {
+        fail(file, 'package-write', messages['package-write'](folder, codeOf(error)))
+        failed = true
+        continue
+      }
+      staged.push({ file, folder, staged: stagedFolder, model: built.model, date: built.date, stem: basename(path, extname(path)) })
     } catch (error) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
-      file.message(`Cannot build this note: internal error: ${error instanceof Error ? error.message : String(error)}`, {
-        place: { line: 1, column: 1 },
-        ruleId: 'internal-error',
-        source: 'linkwright',
-      }).fatal = true
+      fail(file, 'internal-error', messages['internal-error'](error instanceof Error ? error.message : String(error)))
       failed = true
     }
   }
@@ -129,43 +214,68 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
   // 2. Print the staged packages with one browser (depends on 1).
   let noBrowser = false
   const printed = new Map<Staged, number>()
+  const unprinted = new Set<Staged>()
   try {
     if (options.pdf && staged.length > 0) {
-      const { findBrowser, INSTALL_HINT } = await import('../pdf/browser.js')
+      const { findBrowser, INSTALL_HINT, killBrowsers } = await import('../pdf/browser.js')
       const browser = findBrowser(options.browser)
       if (browser === null) {
         noBrowser = true
         err(`linkwright: ${options.browser ? `cannot run the browser at ${options.browser}. ` : ''}${INSTALL_HINT}\n`)
       } else {
         const { printPackages } = await import('../pdf/print.js')
-        const results = await printPackages(staged.map((s) => printJob(s, options.paper)), browser)
-        results.forEach((result, i) => {
+        const stopBrowser = onStop(killBrowsers)
+        let results
+        try {
+          results = await printPackages(staged.map((s) => printJob(s, options.paper)), browser)
+        } catch (error) {
+          noBrowser = true
+          const reason = (error instanceof Error ? error.message : String(error)).split('\n')[0]
+          err(`linkwright: cannot start the browser at ${browser} (${reason}), so no PDF was printed; the HTML packages are built where no previous PDF would be lost. \`--browser\` names another; \`--no-pdf\` skips printing.\n`)
+        } finally {
+          stopBrowser()
+        }
+        results?.forEach((result, i) => {
           const item = staged[i]!
           for (const url of result.blocked) {
             item.file.message(`Blocked a request for \`${url}\` while printing: the package loads nothing from outside its folder`, {
               place: { line: 1, column: 1 },
               ruleId: 'remote-resource',
-              source: 'linkwright',
+              source: SOURCE,
             })
           }
           if (result.ok) printed.set(item, result.pages)
           else {
             failed = true
-            item.file.message(`Cannot print the PDF: ${result.error}`, { place: { line: 1, column: 1 }, ruleId: 'pdf-print', source: 'linkwright' }).fatal = true
+            unprinted.add(item)
+            fail(item.file, 'pdf-print', messages['pdf-print'](result.error ?? 'unknown reason'))
           }
         })
       }
     }
-    // 3. Put every package in place.
+    // 3. Put in place every package that is complete: one whose PDF was asked for
+    //    and failed is dropped, and one without its PDF never replaces one with it.
     for (const item of staged) {
-      item.staged.commit()
+      if (unprinted.has(item)) continue
+      if (options.pdf && !printed.has(item) && existsSync(join(item.folder, `${item.stem}.pdf`))) {
+        fail(item.file, 'pdf-kept', messages['pdf-kept'](item.folder), false)
+        continue
+      }
+      try {
+        item.staged.commit()
+      } catch (error) {
+        failed = true
+        if (error instanceof ForeignFolderError) fail(item.file, 'package-folder', messages['package-folder'](`${error.message}, so the package is not written there`))
+        else fail(item.file, 'package-write', messages['package-write'](item.folder, codeOf(error)))
+        continue
+      }
       if (options.quiet) continue
       const checks = item.model.checks.length > 0 ? ` (${tallyWords(tallyChecks(item.model.checks))})` : ''
       const pdf = printed.has(item) ? `, ${join(item.folder, `${item.stem}.pdf`)} (${printed.get(item)} pages)` : ''
       out(`${item.file.path}: ${join(item.folder, 'index.html')}${pdf}${checks}\n`)
     }
   } finally {
-    // Anything not committed (an exception above) is dropped; the old packages stay.
+    // Anything not committed (dropped above, or an exception) goes; the old packages stay.
     for (const item of staged) {
       try {
         item.staged.discard()

@@ -60,7 +60,8 @@ export function helpText(name?: string): string {
       'Run `linkwright <command> --help` for the options of a command.',
       '',
       'Exit status: 0 all good; 1 a note has errors (or, for check, an acceptance check FAILs);',
-      '2 the command line is wrong; 3 PDFs were asked for but no browser was found.',
+      '2 the command line is wrong; 3 PDFs were asked for but no browser was found or started;',
+      '4 the output folder cannot be created or written. Ctrl-C or SIGTERM: 130 or 143, nothing half-written.',
       '',
     ].join('\n')
   }

@@ -4,6 +4,7 @@
  */
 import { parseArgs } from 'node:util'
 import { commands, helpText } from './commands.js'
+import { handleStopSignals } from './signals.js'
 
 const write = (stream: NodeJS.WriteStream) => (text: string) => {
   if (text) stream.write(text)
@@ -69,6 +70,7 @@ async function main(argv: readonly string[]): Promise<number> {
   )
 }
 
+handleStopSignals(err)
 main(process.argv.slice(2)).then(
   (code) => {
     process.exitCode = code

@@ -62,6 +62,14 @@ export const messages = {
     `Unexpected remote resource \`${url}\`: the package fetches nothing from the network, so it will be missing from the HTML and PDF`,
   'invalid-value-reference': (text: string, detail: string) => `Cannot print the value \`${text}\`: ${detail}`,
   'display-unit': (kind: string, unit: string) => `Unexpected display unit \`${unit}\` for ${kind}`,
+  // Raised by the command line about a note's file and its package, at 1:1 of the note.
+  'unreadable-note': (reason: string) => `Cannot read this note: ${reason}`,
+  'package-folder': (reason: string) => `Not built: ${reason}`,
+  'package-write': (folder: string, reason: string) => `Cannot write the package into ${folder}: ${reason}; the previous package is as it was`,
+  'pdf-print': (reason: string) => `Cannot print the PDF: ${reason}; the previous package is as it was`,
+  'pdf-kept': (folder: string) =>
+    `Not replaced: the previous package in ${folder} has a PDF and none could be printed now, so it is kept as it was; install a browser, or build with --no-pdf to replace it with HTML only`,
+  'internal-error': (detail: string) => `Cannot build this note: internal error: ${detail}`,
 } as const
 
 /** A rule id of the catalogue. */

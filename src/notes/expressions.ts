@@ -5,7 +5,7 @@
  */
 import type { MathNode } from 'mathjs'
 import type { Position } from 'unist'
-import { evaluateExpression, isComplexValue, parseQuantityExpression } from './quantity.js'
+import { evaluateExpression, hasUnboundedPower, isComplexValue, parseQuantityExpression } from './quantity.js'
 import { messages, type RuleId } from './messages.js'
 import { RENAMED_RESULTS } from './block-kinds/extremes.js'
 
@@ -109,6 +109,9 @@ export function evaluateText(
   for (const [id, values] of scope.values) if (!symbols.has(id)) symbols.set(id, values)
   try {
     const value = evaluateExpression(node, Object.fromEntries(symbols))
+    if (hasUnboundedPower(value)) {
+      return { ok: false, ruleId: 'invalid-expression', reason: messages['invalid-expression'](text, 'a unit is raised to a power that is not a finite number') }
+    }
     if (isComplexValue(value)) {
       return { ok: false, ruleId: 'invalid-expression', reason: messages['invalid-expression'](text, 'it gives a complex number (an imaginary part, or the root of a negative number); a design quantity is real') }
     }

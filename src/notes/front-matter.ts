@@ -86,7 +86,18 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
     reportError(file, 'front-matter-syntax', messages['front-matter-syntax'](`its aliases (\`*name\`) expand too far (${error instanceof Error ? error.message : String(error)}); write the values out`), where)
     return emptyMeta
   }
-  const at = (field: string): Position | undefined => place(pairs.get(field)?.value ?? pairs.get(field)?.key)
+  // A dotted field (`people.prepared.date`) is found through the maps; else its nearest parent; else the front matter's first line.
+  const at = (field: string): Position => {
+    const [head, ...rest] = field.split('.')
+    let node: YamlNode | null | undefined = pairs.get(head!)?.value ?? pairs.get(head!)?.key
+    for (const key of rest) {
+      if (!isMap(node)) break
+      const pair: Pair<YamlNode, YamlNode> | undefined = (node.items as Pair<YamlNode, YamlNode>[]).find((p) => String((p.key as { value?: unknown }).value) === key)
+      if (!pair) break
+      node = pair.value ?? pair.key
+    }
+    return place(node) ?? { start: { line: firstLine, column: 1 }, end: { line: firstLine, column: 1 } }
+  }
   const bad = (field: string, detail: string): void => {
     reportError(file, 'front-matter-field', messages['front-matter-field'](field, detail), at(field))
   }

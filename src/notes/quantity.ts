@@ -148,6 +148,13 @@ export function evaluateExpression(node: MathNode, scope: Readonly<Record<string
   return code.evaluate(new Map(Object.entries(scope)))
 }
 
+/** True for a unit raised to a power that is not a finite number (`s^Infinity`). */
+export function hasUnboundedPower(value: unknown): boolean {
+  if (!isUnitValue(value)) return false
+  const unit = value as unknown as { dimensions: number[]; units: { power: number }[] }
+  return unit.dimensions.some((d) => !Number.isFinite(d)) || unit.units.some((u) => !Number.isFinite(u.power))
+}
+
 /** True for a complex number, or a quantity whose number is complex. */
 export function isComplexValue(value: unknown): boolean {
   if (math.isComplex(value)) return true
@@ -281,9 +288,14 @@ export function valueOf(value: unknown): Value | null {
   const kind = kindOfUnit(value)
   if (kind) return { type: 'quantity', kind, si: value.toNumber(KINDS[kind].si) }
   if (value.equalBase(math.unit('1'))) return { type: 'quantity', kind: 'ratio', si: value.toNumber('') }
-  const unit = value.formatUnits()
-  const si = value.toSI()
-  return { type: 'other', si: si.toNumber(si.formatUnits()), siUnit: si.formatUnits(), unit, shown: value.toNumber(unit) }
+  try {
+    const unit = value.formatUnits()
+    const si = value.toSI()
+    return { type: 'other', si: si.toNumber(si.formatUnits()), siUnit: si.formatUnits(), unit, shown: value.toNumber(unit) }
+  } catch {
+    // A unit mathjs cannot write back (a power that is not a finite number).
+    return null
+  }
 }
 
 /** Result of reading a value as a quantity of a kind. */

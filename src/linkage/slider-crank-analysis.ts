@@ -284,7 +284,8 @@ function deadCentres(
   // Inner: |OB| = |b − a|; A lies opposite B when b > a, beside it when b < a.
   const reach = Math.abs(b - a)
   let inner: DeadCentre | null = null
-  if (Math.abs(h) <= reach * (1 + GEOMETRY_TOLERANCE)) {
+  // The same absolute tolerance as the crank's range: a rod of exactly a + |h| turns fully and has both dead centres.
+  if (Math.abs(h) <= reach + GEOMETRY_TOLERANCE * (a + b + Math.abs(h))) {
     const along = Math.sqrt(Math.max(0, reach * reach - h * h))
     const innerX = b >= a ? side * along : -side * along
     const innerTheta = b >= a ? Math.atan2(-h, -innerX) : Math.atan2(h, innerX)

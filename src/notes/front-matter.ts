@@ -146,7 +146,7 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
   }
   const revisions = readRevisions(raw.revisions, bad)
   const references = readReferences(raw.references, bad)
-  const units = readUnits(raw.units, bad)
+  const units = readUnits(raw.units, bad, (kind, unit) => reportError(file, 'display-unit', messages['display-unit'](KINDS[kind].words, unit), at(`units.${kind}`)))
   const known = new Set(['title', 'number', 'revision', 'project', 'purpose', 'scope', 'exclusions', 'status', 'date', 'paper', 'units', 'digits', 'people', 'revisions', 'references'])
   const exclusions: string[] = []
   if (raw.exclusions !== undefined && raw.exclusions !== null) {
@@ -255,7 +255,7 @@ function readReferences(value: unknown, bad: Bad): Map<string, string> {
   return map
 }
 
-function readUnits(value: unknown, bad: Bad): DisplayUnits {
+function readUnits(value: unknown, bad: Bad, badUnit: (kind: QuantityKind, unit: string) => void): DisplayUnits {
   if (value === undefined || value === null) return { system: 'SI', overrides: {} }
   if (typeof value === 'string') {
     if (value === 'SI' || value === 'US') return { system: value, overrides: {} }
@@ -280,7 +280,7 @@ function readUnits(value: unknown, bad: Bad): DisplayUnits {
       continue
     }
     if (typeof unit !== 'string' || !unitFitsKind(unit, kind as QuantityKind)) {
-      bad('units', messages['display-unit'](KINDS[kind as QuantityKind].words, String(unit)))
+      badUnit(kind as QuantityKind, String(unit))
       continue
     }
     overrides[kind as QuantityKind] = unit

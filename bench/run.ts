@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: every benchmark in one process, with ratios measured in the
- * same run. `npm run bench -- core` (dynamics, tolerance, package, figures, pdf) runs one;
+ * same run. `npm run bench -- core` (dynamics, tolerance, package, figures, pdf, fuzz) runs one;
  * `-- --json` prints one JSON object instead of Markdown tables.
  */
 import { runCoreBench } from './core.js'
@@ -10,6 +10,7 @@ import { json, markdown } from './measure.js'
 import { runPackageBench } from './package.js'
 import { runFiguresBench } from './figures.js'
 import { runPdfBench } from './pdf.js'
+import { runFuzzBench } from './fuzz.js'
 
 const args = process.argv.slice(2)
 const asJson = args.includes('--json')
@@ -21,4 +22,5 @@ if (wanted('tolerance')) await runToleranceBench()
 if (wanted('package')) await runPackageBench()
 if (wanted('figures')) await runFiguresBench()
 if (wanted('pdf')) await runPdfBench()
+if (wanted('fuzz')) await runFuzzBench()
 process.stdout.write(asJson ? json() : markdown())

@@ -13,65 +13,15 @@ import { describe, expect, it } from 'vitest'
 import { dataReader } from '../../src/cli/data-files.js'
 import { messages } from '../../src/notes/messages.js'
 import { build } from '../helpers/note.js'
+import { MUTATION_RUNS, MUTATION_SEED, applyEdit } from '../helpers/mutations.js'
+
+/** One edit, as numbers fast-check can shrink: which kind, where, with what. */
+const edit = fc.record({ kind: fc.integer({ min: 0, max: 7 }), at: fc.nat(), pick: fc.nat() })
 
 const NOTES = ['carton-pusher', 'sieve-rocker', 'plunger-pump', 'air-agitator'].map((name) => ({
   path: `reports/${name}.md`,
   text: readFileSync(new URL(`../../reports/${name}.md`, import.meta.url), 'utf8'),
 }))
-
-const NUMBERS = ['NaN', 'Infinity', '-Infinity', '1e308', '1e-308', '-0', '0', '-1', '9'.repeat(40), '1e9', '0.000000001', '1/0', '(', '']
-const UNITS = ['mm', 'deg', 'rpm', 'kg', 'N', 'm/s', 'in', 'lbf', 'rad', 'bar', 'J', 'Pa', 'xyz']
-const JUNK = ['\u0000', '\u202e', '𝛼', '\uFEFF', '\u200b', '```', '---', '#', ':', ';', '[', '{', '"', '\t', '\r\n', 'é', '🙂']
-
-/** One edit, as numbers fast-check can shrink: which kind, where, with what. */
-const edit = fc.record({ kind: fc.integer({ min: 0, max: 7 }), at: fc.nat(), pick: fc.nat() })
-
-function apply(text: string, e: { kind: number; at: number; pick: number }): string {
-  const lines = text.split('\n')
-  const line = e.at % lines.length
-  switch (e.kind) {
-    case 0: // truncated
-      return text.slice(0, e.at % (text.length + 1))
-    case 1: // a line lost
-      lines.splice(line, 1)
-      return lines.join('\n')
-    case 2: // a line doubled
-      lines.splice(line, 0, lines[line]!)
-      return lines.join('\n')
-    case 3: {
-      // a number replaced (the n-th number of the note)
-      const all = [...text.matchAll(/\d+(?:\.\d+)?/g)]
-      if (all.length === 0) return text
-      const m = all[e.at % all.length]!
-      return text.slice(0, m.index) + NUMBERS[e.pick % NUMBERS.length] + text.slice(m.index! + m[0].length)
-    }
-    case 4: {
-      // a unit swapped
-      const all = [...text.matchAll(/\b(mm|deg|rpm|kg|N|m\/s|bar|J|Hz|s)\b/g)]
-      if (all.length === 0) return text
-      const m = all[e.at % all.length]!
-      return text.slice(0, m.index) + UNITS[e.pick % UNITS.length] + text.slice(m.index! + m[0].length)
-    }
-    case 5: {
-      // stray characters
-      const at = e.at % (text.length + 1)
-      return text.slice(0, at) + JUNK[e.pick % JUNK.length] + text.slice(at)
-    }
-    case 6: {
-      // a fence dropped
-      const fences = lines.flatMap((l, i) => (l.startsWith('```') ? [i] : []))
-      if (fences.length === 0) return text
-      lines.splice(fences[e.at % fences.length]!, 1)
-      return lines.join('\n')
-    }
-    default: {
-      // two lines swapped
-      const other = e.pick % lines.length
-      ;[lines[line], lines[other]] = [lines[other]!, lines[line]!]
-      return lines.join('\n')
-    }
-  }
-}
 
 /** Numbers of a results document that are not finite (JSON would print them as null). */
 function nonFinite(value: unknown, path = ''): string[] {
@@ -98,7 +48,7 @@ describe('mutated demo notes', () => {
     await fc.assert(
       fc.asyncProperty(fc.nat({ max: NOTES.length - 1 }), fc.array(edit, { minLength: 1, maxLength: 3 }), async (which, edits) => {
         const note = NOTES[which]!
-        const text = edits.reduce(apply, note.text)
+        const text = edits.reduce(applyEdit, note.text)
         const { file, built } = await build(text.startsWith('---') ? text : `---\n${text}`, note.path, dataReader(note.path))
         const lineCount = String(file.value).split('\n').length
         for (const m of file.messages) {
@@ -114,7 +64,7 @@ describe('mutated demo notes', () => {
           expect(file.messages.some((m) => m.fatal === true)).toBe(true)
         }
       }),
-      { numRuns: Number(process.env.LINKWRIGHT_FUZZ_RUNS ?? 60), seed: Number(process.env.LINKWRIGHT_FUZZ_SEED ?? 20261203) },
+      { numRuns: Number(process.env.LINKWRIGHT_FUZZ_RUNS ?? MUTATION_RUNS), seed: Number(process.env.LINKWRIGHT_FUZZ_SEED ?? MUTATION_SEED) },
     )
   })
 })

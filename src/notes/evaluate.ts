@@ -18,7 +18,14 @@ export interface Evaluation {
 }
 
 /** Evaluate blocks (in document order as given) for a note's settings. */
-export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, file: VFile, readData: DataReader | null = null): Evaluation {
+/** Most calculation blocks a note may have: a design note, not a data set (each block may sweep, chart or sample). */
+export const MAX_BLOCKS = 400
+
+export function evaluateBlocks(allBlocks: readonly CalcBlock[], meta: NoteMeta, file: VFile, readData: DataReader | null = null): Evaluation {
+  const blocks = allBlocks.slice(0, MAX_BLOCKS)
+  if (allBlocks.length > MAX_BLOCKS) {
+    reportError(file, 'block-syntax', messages['block-syntax'](`the note has ${allBlocks.length} calculation blocks; at most ${MAX_BLOCKS} are evaluated: split it into several notes`), allBlocks[MAX_BLOCKS]!.place)
+  }
   const context: EvaluationContext = {
     file,
     meta,
@@ -28,6 +35,7 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
     citations: [],
     readData,
     dataFiles: [],
+    budget: { samples: 0 },
   }
   // Blocks without an id still take part: give them a key no expression can name.
   const keyOf = (block: CalcBlock): string => block.id ?? `#${block.index}`
@@ -38,7 +46,7 @@ export function evaluateBlocks(blocks: readonly CalcBlock[], meta: NoteMeta, fil
   }
   const { order, cycles } = dependencyOrder(keys, needs)
   const byKey = new Map(blocks.map((b) => [keyOf(b), b]))
-  const outcomes: (BlockOutcome | null)[] = blocks.map(() => null)
+  const outcomes: (BlockOutcome | null)[] = allBlocks.map(() => null)
   const failed = new Set<string>()
   for (const cycle of cycles) {
     for (const key of new Set(cycle)) {

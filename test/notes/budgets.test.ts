@@ -52,6 +52,26 @@ describe('budgets of one line', () => {
     })
   }
 
+  it('should evaluate at most 400 calculation blocks and say so at the first one left out', async () => {
+    const blocks = Array.from({ length: 402 }, (_, i) => `\`\`\`design-inputs #d${i}\nv: ${i} mm\n\`\`\`\n`).join('\n')
+    const { file, built } = await build(blocks)
+    expect(built.ok).toBe(false)
+    const errors = file.messages.filter((m) => m.fatal === true)
+    // Each block is four lines (fence, value, fence, blank): block 401 starts 400 blocks below the first.
+    expect(errors.map((m) => `${m.line}:${m.column} ${m.ruleId}`)).toEqual([`${BODY_LINE + 400 * 4}:1 block-syntax`])
+    expect(errors[0]!.reason).toMatch(/402 calculation blocks; at most 400/)
+  })
+
+  it('should refuse Monte Carlo samples beyond the note’s budget, at the block that would pass it', async () => {
+    const tol = (i: number) => `\`\`\`tolerances #t${i}\nof: drive\ncrank: ± 0.05 mm\nsamples: 2000000\n\`\`\`\n`
+    const { file, built } = await build(`${drive}\n${Array.from({ length: 3 }, (_, i) => tol(i)).join('\n')}`)
+    expect(built.ok).toBe(false)
+    const errors = file.messages.filter((m) => m.fatal === true)
+    // The third block's `samples:` line: 4 000 000 samples are drawn, 1 000 000 more are allowed.
+    expect(errors.map((m) => `${m.line}:${m.column} ${m.ruleId}`)).toEqual([`${BODY_LINE + 6 + 2 * 6 + 3}:10 invalid-choice`])
+    expect(errors[0]!.reason).toMatch(/at most 1000000 more: a note draws at most 5000000 Monte Carlo samples in all/)
+  })
+
   it('should refuse an alias bomb in the front matter at its first alias', async () => {
     const levels = ['a: &a [x, x, x, x, x, x, x, x, x]']
     for (const [i, name] of ['b', 'c', 'd', 'e', 'f', 'g'].entries()) levels.push(`${name}: &${name} [${Array(9).fill(`*${'abcdef'[i]}`).join(', ')}]`)

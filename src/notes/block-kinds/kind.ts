@@ -24,7 +24,12 @@ export interface EvaluationContext {
   readonly readData: DataReader | null
   /** Data files read, with their digests, for the package and its fingerprint. */
   readonly dataFiles: DataFile[]
+  /** Work the note has spent so far (shared with a study's scratch evaluations), against its bounds. */
+  readonly budget: { samples: number }
 }
+
+/** Most Monte Carlo samples one note may draw in all, studies included: about seven seconds on one core with their statistics. */
+export const MAX_NOTE_SAMPLES = 5_000_000
 
 /** A data file a note read, identified by its digest. */
 export interface DataFile {

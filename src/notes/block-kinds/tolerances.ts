@@ -36,7 +36,7 @@ import type { MethodStep, NamedValue } from '../types.js'
 import { designChart } from './design-chart.js'
 import { linkageOf } from './forces.js'
 import { citeSources, ofAndReferences } from './inputs.js'
-import { outcome, type BlockKind, type DataTable, type EvaluationContext } from './kind.js'
+import { MAX_NOTE_SAMPLES, outcome, type BlockKind, type DataTable, type EvaluationContext } from './kind.js'
 import { withLinkage } from './linkage-common.js'
 import { flag, publish, quantity, tex, texBare } from './values.js'
 
@@ -171,6 +171,10 @@ export const tolerancesKind: BlockKind = {
     const response: Response = kind === 'slider-crank' ? SLIDER_CRANK_RESPONSE : CRANK_ROCKER_RESPONSE
     const figures = withLinkage(block, context, () => spread(response, inputs, distribution))
     if (!figures) return null
+    if (context.budget.samples + samples > MAX_NOTE_SAMPLES) {
+      return fail('invalid-choice', messages['invalid-choice']('samples', String(samples), [`at most ${MAX_NOTE_SAMPLES - context.budget.samples} more: a note draws at most ${MAX_NOTE_SAMPLES} Monte Carlo samples in all (studies included)`]), entries.get('samples')?.valuePlace ?? block.place)
+    }
+    context.budget.samples += samples
     const run = withLinkage(block, context, () => monteCarlo(response, inputs, samples, seed, distribution))
     if (!run) return null
     const stats = figures.map((_, r) => sampleStatistics(run.samples[r]!, percentiles))

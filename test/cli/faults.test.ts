@@ -196,14 +196,93 @@ describe('odd files and folders', () => {
   })
 })
 
+describe('killed at any moment', () => {
+  it('should leave every package the old one or a complete new one after SIGKILL at seeded moments, and the next build tidies up', async () => {
+    const dir = folder('kill-moments')
+    mkdirSync(join(dir, 'notes'))
+    for (let i = 1; i <= 6; i++) writeFileSync(join(dir, 'notes', `n${i}.md`), NOTE.replace('T-9', `T-${i}`))
+    expect(run(['build', 'notes', '--no-pdf'], dir).code).toBe(0)
+    const complete = (name: string) => [...snapshot(join(dir, 'out', name)).keys()].sort()
+    const files = complete('n1')
+    // Moments spread over a build (start-up, evaluation, writing), from a fixed seed.
+    let seed = 20261203
+    const moments = Array.from({ length: 6 }, () => {
+      seed = (seed * 1103515245 + 12345) % 2 ** 31
+      return 150 + (seed % 1800)
+    })
+    for (const [round, delay] of moments.entries()) {
+      for (let i = 1; i <= 6; i++) writeFileSync(join(dir, 'notes', `n${i}.md`), NOTE.replace('T-9', `T-${i}`).replace('160 mm', `${161 + round} mm`))
+      const child = spawn(process.execPath, [bin, 'build', 'notes', '--no-pdf'], { cwd: dir, env: { ...process.env, NO_COLOR: '1' } })
+      const closed = new Promise((done) => child.on('close', done))
+      await new Promise((r) => setTimeout(r, delay))
+      child.kill('SIGKILL')
+      await closed
+      for (let i = 1; i <= 6; i++) {
+        expect(complete(`n${i}`), `n${i} after a kill at ${delay} ms`).toEqual(files)
+        JSON.parse(readFileSync(join(dir, 'out', `n${i}`, 'results.json'), 'utf8'))
+      }
+    }
+    const next = run(['build', 'notes', '--no-pdf'], dir)
+    expect(next.code, next.stderr).toBe(0)
+    expect(readdirSync(join(dir, 'out')).filter((n) => n.startsWith('.') && n !== '.cache')).toEqual([])
+    expect(JSON.parse(readFileSync(join(dir, 'out', 'n6', 'results.json'), 'utf8')).blocks[0].inputs.rod.si).toBeCloseTo((161 + moments.length - 1) / 1000, 12)
+  })
+})
+
+describe('where the output goes', () => {
+  for (const [where, out] of [
+    ['inside the notes folder', 'notes/out'],
+    ['equal to the notes folder', 'notes'],
+    ['above the notes folder', '.'],
+  ] as const) {
+    it(`should build safely with --out ${where}, twice, and leave the notes as they were`, () => {
+      const dir = folder('out-where')
+      mkdirSync(join(dir, 'notes', 'sub'), { recursive: true })
+      writeFileSync(join(dir, 'notes', 'a.md'), NOTE)
+      writeFileSync(join(dir, 'notes', 'sub', 'b.md'), NOTE)
+      const notesBefore = [...snapshot(join(dir, 'notes')).entries()]
+      for (let round = 0; round < 2; round++) {
+        const result = run(['build', 'notes', '--out', out, '--no-pdf'], dir)
+        noStack(result.stderr)
+        expect(result.code, result.stderr).toBe(0)
+        // The second build finds the same two notes: the packages are never taken for notes.
+        expect(result.stdout.trim().split('\n')).toHaveLength(2)
+      }
+      expect(existsSync(join(dir, out, 'a', 'index.html'))).toBe(true)
+      expect(existsSync(join(dir, out, 'sub', 'b', 'index.html'))).toBe(true)
+      const notesAfter = snapshot(join(dir, 'notes'))
+      for (const [name, bytes] of notesBefore) expect(notesAfter.get(name), name).toBe(bytes)
+    })
+  }
+
+  it('should refuse a load file reached through a link that leaves the design repository', () => {
+    const dir = folder('data-link')
+    const outside = folder('data-outside')
+    writeFileSync(join(outside, 'load.csv'), 'travel (mm), force (N)\n0, 10\n80, 10\n')
+    mkdirSync(join(dir, 'repo'))
+    symlinkSync(join(outside, 'load.csv'), join(dir, 'repo', 'load.csv'))
+    const note = `${NOTE}\n\`\`\`forces #push\nof: drive\nload_file: load.csv\nslider_mass: 1 kg\n\`\`\`\n`
+    writeFileSync(join(dir, 'repo', 'a.md'), note)
+    const result = run(['build', 'repo', '--no-pdf'], dir)
+    noStack(result.stderr)
+    expect(result.code).toBe(1)
+    const line = note.split('\n').findIndex((l) => l.startsWith('load_file')) + 1
+    expect(result.stderr).toMatch(new RegExp(`^repo/a\\.md:${line}:12 {2}error {2}Cannot read the data file \`load\\.csv\`: it lies outside the design repository`, 'm'))
+  })
+})
+
 describe.skipIf(browser === null)('faults while printing', () => {
   /** A notes folder of `count` notes, built once with PDFs. */
   function printed(name: string, count: number): string {
     const dir = folder(name)
     mkdirSync(join(dir, 'notes'))
     for (let i = 1; i <= count; i++) writeFileSync(join(dir, 'notes', `n${i}.md`), NOTE.replace('T-9', `T-${i}`))
-    const first = run(['build', 'notes'], dir)
+    const temp = folder(`${name}-tmp`)
+    const first = run(['build', 'notes'], dir, { TMPDIR: temp })
     expect(first.code, first.stderr).toBe(0)
+    // A normal run leaves no temporary files, no staging and no lock.
+    expect(readdirSync(temp)).toEqual([])
+    expect(readdirSync(join(dir, 'out')).filter((n) => n.startsWith('.') && n !== '.cache')).toEqual([])
     return dir
   }
 

@@ -20,6 +20,7 @@ import type { ChartCache } from '../render/chart-svg.js'
 import { statusWords } from '../render/sections.js'
 import { tallyChecks, tallyWords } from '../notes/tally.js'
 import { COMMIT, TOOL } from '../version.js'
+import { toolWithBuild } from './tool-build.js'
 import { codeOf, discardOpenStages, findNotes, ForeignFolderError, foreignContent, makeFolder, planFolders, stageFolder, tidyOutput, writeFileAtomic, type StagedFolder } from './files.js'
 import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
@@ -178,7 +179,7 @@ async function buildLocked(
       continue
     }
     try {
-      const built = await buildNote(file, { tool: TOOL, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
+      const built = await buildNote(file, { tool: toolWithBuild(TOOL), notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
       if (!built.ok || built.html === null) {
         failed = true
         if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)

@@ -9,6 +9,7 @@ import { CAUTION } from '../notes/caution.js'
 import { readNote } from '../notes/note.js'
 import { failuresFirst, tallyChecks, tallyWords } from '../notes/tally.js'
 import { TOOL } from '../version.js'
+import { toolWithBuild } from './tool-build.js'
 import { findNotes } from './files.js'
 import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
@@ -44,7 +45,7 @@ export function checkCommand(options: CheckOptions, out: (text: string) => void,
     files.push(file)
     let model
     try {
-      model = readNote(file, TOOL, { gitDate: () => gitDate(path), readData: dataReader(path) }).model
+      model = readNote(file, toolWithBuild(TOOL), { gitDate: () => gitDate(path), readData: dataReader(path) }).model
     } catch (error) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
       file.message(messages['internal-error'](error instanceof Error ? error.message : String(error)), { place: { line: 1, column: 1 }, ruleId: 'internal-error', source: SOURCE }).fatal = true

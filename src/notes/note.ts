@@ -46,10 +46,16 @@ declare module 'mdast' {
   }
 }
 
-/** The tool that evaluates: name and version go into the fingerprint. */
+/** The tool that evaluates: name, version and (when known) its build go into the fingerprint. */
 export interface Tool {
   readonly name: string
   readonly version: string
+  /**
+   * sha-256 of the tool's own code and templates as run (the bundle's files), so
+   * a change to the core or the templates changes the fingerprint even when the
+   * version does not. Absent when run from source (tests in process).
+   */
+  readonly build?: string
 }
 
 /** A numbered reference of the package. */
@@ -135,16 +141,20 @@ export function readNote(file: VFile, tool: Tool, options?: ReadOptions | null):
 }
 
 /**
- * Fingerprint of a package: sha-256 over the tool's name and version and the
- * note's text (line endings normalised), so a signed package is tied to exactly
- * what was computed.
+ * Fingerprint of a package: sha-256 over the tool's name, version and build
+ * (its code and templates), the note's text (line endings normalised) and the
+ * data files it reads, so a signed package is tied to exactly what was computed.
  */
 export function fingerprint(tool: Tool, source: string, dataFiles: readonly DataFile[] = []): string {
   const note = source.replace(/\r\n?/g, '\n')
   // The data files a note reads are part of what was computed: their digests join the fingerprint.
-  const canonical = dataFiles.length === 0
-    ? JSON.stringify({ tool: tool.name, version: tool.version, note })
-    : JSON.stringify({ tool: tool.name, version: tool.version, note, data: dataFiles.map((f) => [f.path, f.sha256]) })
+  const canonical = JSON.stringify({
+    tool: tool.name,
+    version: tool.version,
+    ...(tool.build ? { build: tool.build } : {}),
+    note,
+    ...(dataFiles.length > 0 ? { data: dataFiles.map((f) => [f.path, f.sha256]) } : {}),
+  })
   return createHash('sha256').update(canonical).digest('hex')
 }
 

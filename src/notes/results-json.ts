@@ -51,7 +51,7 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
   const tally = tallyChecks(model.checks)
   return {
     schema: RESULTS_SCHEMA,
-    tool: { name: model.tool.name, version: model.tool.version },
+    tool: { name: model.tool.name, version: model.tool.version, ...(model.tool.build ? { build: model.tool.build } : {}) },
     fingerprint: model.fingerprint,
     dataFiles: model.dataFiles.map((f) => ({ path: f.path, sha256: f.sha256 })),
     note: notePath,

@@ -237,6 +237,7 @@ export function software(model: NoteModel, notePath: string, commit: string): El
     h('h2', 'Calculation software'),
     h('dl.lw-software', [
       h('div', [h('dt', 'Program'), h('dd', `${model.tool.name} ${model.tool.version}`)]),
+      model.tool.build ? h('div', [h('dt', 'Build'), h('dd', [h('code', model.tool.build.slice(0, 16)), ' — sha-256 of the program’s code and templates as run, part of the fingerprint'])]) : null,
       h('div', [h('dt', 'Source revision'), h('dd', h('code', commit))]),
       h('div', [h('dt', 'Input'), h('dd', h('code', notePath))]),
       model.dataFiles.length > 0
@@ -290,7 +291,7 @@ export function signOff(model: NoteModel): Element {
     h('p.lw-fingerprint', [
       'Fingerprint ',
       h('code', { title: model.fingerprint }, shortFingerprint(model.fingerprint)),
-      ` — sha-256 of the note and ${model.tool.name} ${model.tool.version}; full value `,
+      ` — sha-256 of the note${model.dataFiles.length > 0 ? ', the data files it reads' : ''} and ${model.tool.name} ${model.tool.version}${model.tool.build ? ` (build ${model.tool.build.slice(0, 12)}: its code and templates)` : ''}; full value `,
       h('code.lw-fingerprint-full', model.fingerprint),
       '. A signature applies only to the package with this fingerprint.',
     ]),

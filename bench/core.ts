@@ -43,7 +43,7 @@ function bareSliderCrank(out: Float64Array[]): void {
     w[i] = dphi * omega
     alpha[i] = ddphi * omega2
     const ratio = Math.abs(u) / rod
-    mu[i] = Math.acos(ratio > 1 ? 1 : ratio)
+    mu[i] = Math.acos(Math.min(ratio, 1))
   }
 }
 
@@ -72,7 +72,7 @@ function bareFourBar(out: Float64Array[], reference3: number, reference4: number
     const diag2 = wx * wx + wy * wy
     const diag = Math.sqrt(diag2)
     const cosBeta = (b4 * b4 + diag2 - c4 * c4) / (2 * b4 * diag)
-    const t3 = Math.atan2(wy, wx) + Math.acos(cosBeta > 1 ? 1 : cosBeta < -1 ? -1 : cosBeta)
+    const t3 = Math.atan2(wy, wx) + Math.acos(cosBeta > 1 ? 1 : Math.max(cosBeta, -1))
     const c3 = Math.cos(t3)
     const s3 = Math.sin(t3)
     const t4 = Math.atan2(ay + b4 * s3, ax + b4 * c3 - d4)

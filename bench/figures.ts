@@ -40,13 +40,13 @@ const sixCharts = (tag: string) =>
   base + ['velocity', 'acceleration', 'transmission_angle', 'position', 'rod_angle', 'rod_angular_velocity'].map((s, i) => chart(i, s, tag)).join('')
 
 export async function runFiguresBench(): Promise<void> {
-  const { model } = readNote(new VFile({ value: base + chart(0, 'velocity', '') + chart(1, 'velocity, acceleration, transmission_angle', '') + '\n```chart #c2\nof: drive\nseries: velocity, acceleration, transmission_angle\nlayout: stacked\n```\n' }), TOOL)
+  const { model } = readNote(new VFile({ value: `${base + chart(0, 'velocity', '') + chart(1, 'velocity, acceleration, transmission_angle', '')}\n\`\`\`chart #c2\nof: drive\nseries: velocity, acceleration, transmission_angle\nlayout: stacked\n\`\`\`\n` }), TOOL)
   const single = model.outcomes[2]!.chart!
   const three = model.outcomes[4]!.chart!
   const drawing = model.outcomes[1]!.drawing!
   let n = 0
   // First render: includes loading vega and vega-lite.
-  let start = performance.now()
+  const start = performance.now()
   await chartSvg(chartSpec(single), 'first')
   const first = performance.now() - start
   // Uncached: a new title each time makes a new spec.

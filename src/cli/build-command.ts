@@ -13,7 +13,7 @@
  */
 import { existsSync, lstatSync, readFileSync, readdirSync } from 'node:fs'
 import { basename, extname, join, relative } from 'node:path'
-import { VFile } from 'vfile'
+import type { VFile } from 'vfile'
 import type { NoteModel } from '../notes/note.js'
 import { messages, SOURCE, type RuleId } from '../notes/messages.js'
 import type { ChartCache } from '../render/chart-svg.js'
@@ -111,7 +111,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
   const found = findNotes(options.paths, [options.out])
   for (const path of found.missing) err(`linkwright: cannot find ${path}\n`)
   const files: VFile[] = found.problems.map((p) => pathProblemFile(p, messages['unreadable-note'](p.reason), p.fatal !== false))
-  let failed = found.missing.length > 0 || files.some((f) => f.messages.some((m) => m.fatal === true))
+  const failed = found.missing.length > 0 || files.some((f) => f.messages.some((m) => m.fatal === true))
   if (found.notes.length === 0) {
     err(`linkwright: no notes (.md) found in ${options.paths.join(', ')}\n`)
     err(report(files, { quiet: options.quiet }))
@@ -122,7 +122,7 @@ export async function buildCommand(options: BuildOptions, out: (text: string) =>
     err(unusable.text)
     return unusable.code
   }
-  let lock
+  let lock: Awaited<ReturnType<typeof lockOutput>>
   try {
     lock = await lockOutput(options.out, { waiting: (pid) => out(`waiting for the build running as process ${pid} to finish with ${options.out}/\n`) })
   } catch (error) {
@@ -226,7 +226,7 @@ async function buildLocked(
       } else {
         const { printPackages } = await import('../pdf/print.js')
         const stopBrowser = onStop(killBrowsers)
-        let results
+        let results: Awaited<ReturnType<typeof printPackages>> | undefined
         try {
           results = await printPackages(staged.map((s) => printJob(s, options.paper)), browser)
         } catch (error) {

@@ -43,7 +43,7 @@ export function checkCommand(options: CheckOptions, out: (text: string) => void,
       continue
     }
     files.push(file)
-    let model
+    let model: ReturnType<typeof readNote>['model']
     try {
       model = readNote(file, toolWithBuild(TOOL), { gitDate: () => gitDate(path), readData: dataReader(path) }).model
     } catch (error) {

@@ -395,7 +395,7 @@ export function recoverFolder(target: string): void {
  */
 export function tidyOutput(outDir: string): void {
   const walk = (dir: string, depth: number) => {
-    let entries
+    let entries: import('node:fs').Dirent[]
     try {
       entries = readdirSync(dir, { withFileTypes: true })
     } catch {

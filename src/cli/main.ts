@@ -28,7 +28,7 @@ async function main(argv: readonly string[]): Promise<number> {
     err(`linkwright: unknown command \`${name}\`\n\n${helpText()}`)
     return 2
   }
-  let parsed
+  let parsed: ReturnType<typeof parseArgs>
   try {
     parsed = parseArgs({
       args: [...rest],

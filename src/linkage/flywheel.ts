@@ -90,14 +90,14 @@ export function energyFluctuation(torque: (theta: number) => number, start: numb
       const root = (lo + hi) / 2
       const at = energy + gauss(net, a, root)
       crossings.push(root)
-      if (at > energyMax) (energyMax = at), (fastestAngle = root)
-      if (at < energyMin) (energyMin = at), (slowestAngle = root)
+      if (at > energyMax) { energyMax = at; fastestAngle = root }
+      if (at < energyMin) { energyMin = at; slowestAngle = root }
     }
     energy += gauss(net, a, b)
     if (drive !== null || i === intervals - 1) {
       // Against a stated drive the surplus need not return: its ends count too.
-      if (energy > energyMax) (energyMax = energy), (fastestAngle = b)
-      if (energy < energyMin) (energyMin = energy), (slowestAngle = b)
+      if (energy > energyMax) { energyMax = energy; fastestAngle = b }
+      if (energy < energyMin) { energyMin = energy; slowestAngle = b }
     }
     previous = next
   }

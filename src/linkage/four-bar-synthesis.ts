@@ -275,7 +275,7 @@ export function functionGenerator(
     const dAngle = Math.atan2(Math.sin(state[THETA4]! - theta4(f(x))), Math.cos(state[THETA4]! - theta4(f(x))))
     const generated = y0 + ((theta4(f(x)) + dAngle - output.start) / output.span) * (yf - y0)
     err[i] = generated - f(x)
-    if (Math.abs(err[i]!) > Math.abs(errorMax)) (errorMax = err[i]!), (errorMaxAt = x)
+    if (Math.abs(err[i]!) > Math.abs(errorMax)) { errorMax = err[i]!; errorMaxAt = x }
     angleErrorMax = Math.max(angleErrorMax, Math.abs(dAngle))
   }
   return { ground, input: a, coupler: b, output: c, circuit: chosen, k: K, points, errorMax: Math.abs(errorMax), errorMaxAt, angleErrorMax, errorCurve: { x: ex, error: err } }

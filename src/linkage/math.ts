@@ -37,12 +37,12 @@ export function safeSqrt(value: number, scale: number): number {
 
 /** acos clamped to [-1, 1] so that a dead-centre position does not give NaN. */
 export function clampedAcos(value: number): number {
-  return Math.acos(value > 1 ? 1 : value < -1 ? -1 : value)
+  return Math.acos(value > 1 ? 1 : Math.max(value, -1))
 }
 
 /** asin clamped to [-1, 1]. */
 export function clampedAsin(value: number): number {
-  return Math.asin(value > 1 ? 1 : value < -1 ? -1 : value)
+  return Math.asin(value > 1 ? 1 : Math.max(value, -1))
 }
 
 /** Angle reduced to [0, 2π). */

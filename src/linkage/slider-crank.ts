@@ -320,6 +320,6 @@ function straightState(crank: number, rod: number, offset: number, side: number,
   out[DDPHI] = (side * as) / root - (side * ac * ac * u) / root3
   // Angle between the rod and the normal to the path: acos(|u|/b).
   const ratio = Math.abs(u) / rod
-  out[TRANSMISSION] = Math.acos(ratio > 1 ? 1 : ratio)
+  out[TRANSMISSION] = Math.acos(Math.min(ratio, 1))
   return true
 }

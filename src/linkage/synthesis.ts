@@ -114,7 +114,7 @@ export function bestTransmissionSliderCrank(stroke: number, timeRatio: number): 
   let bestMu = -1
   for (let i = 1; i < n; i++) {
     const value = mu((limit * i) / n)
-    if (value > bestMu) (bestMu = value), (best = i)
+    if (value > bestMu) { bestMu = value; best = i }
   }
   let lo = (limit * (best - 1)) / n || limit * 1e-9
   let hi = (limit * (best + 1)) / n

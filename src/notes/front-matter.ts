@@ -81,7 +81,11 @@ export function readFrontMatter(text: string | null, firstLine: number, file: VF
     raw = (doc.toJS({ maxAliasCount: MAX_ALIASES }) ?? {}) as Record<string, unknown>
   } catch (error) {
     let first: YamlNode | null = null
-    visit(doc, { Alias: (_, node) => void (first ??= node as YamlNode) })
+    visit(doc, {
+      Alias: (_, node) => {
+        first ??= node as YamlNode
+      },
+    })
     const where = place(first)?.start ?? { line: firstLine, column: 1 }
     reportError(file, 'front-matter-syntax', messages['front-matter-syntax'](`its aliases (\`*name\`) expand too far (${error instanceof Error ? error.message : String(error)}); write the values out`), where)
     return emptyMeta

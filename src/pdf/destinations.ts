@@ -22,7 +22,7 @@ export function destinationPages(pdf: Uint8Array): Map<string, number> {
     if (!body || depth > 32) return
     if (/\/Type\s*\/Pages\b/.test(body)) {
       const kids = /\/Kids\s*\[([^\]]*)\]/.exec(body)
-      for (const kid of kids?.[1]!.matchAll(/(\d+)\s+0\s+R/g) ?? []) walk(Number(kid[1]), depth + 1)
+      for (const kid of (kids?.[1] ?? '').matchAll(/(\d+)\s+0\s+R/g) ?? []) walk(Number(kid[1]), depth + 1)
     } else if (/\/Type\s*\/Page\b/.test(body)) order.push(id)
   }
   walk(Number(pagesRef[1]), 0)

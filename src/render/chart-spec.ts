@@ -271,12 +271,12 @@ function roomyDomain(chart: ChartOutcome, series: readonly ChartSeries[]): [numb
     const cut = chart.unbounded.includes(s.name) ? Math.ceil(0.04 * n) : 0
     for (let i = cut; i < n - cut; i++) {
       const v = s.values[i]!
-      if (Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+      if (Number.isFinite(v)) { lo = Math.min(lo, v); hi = Math.max(hi, v) }
     }
   }
   const limit = chart.limit && series.some((s) => s.name === chart.limit!.series) ? chart.limit : null
   if (limit) {
-    for (const v of limit.symmetric ? [limit.value, -limit.value] : [limit.value]) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+    for (const v of limit.symmetric ? [limit.value, -limit.value] : [limit.value]) { lo = Math.min(lo, v); hi = Math.max(hi, v) }
   }
   if (!(hi > lo)) return [lo - 1, hi + 1]
   const room = 0.16 * (hi - lo)
@@ -286,7 +286,7 @@ function roomyDomain(chart: ChartOutcome, series: readonly ChartSeries[]): [numb
 function extent(values: Float64Array): [number, number] {
   let lo = Number.POSITIVE_INFINITY
   let hi = Number.NEGATIVE_INFINITY
-  for (const v of values) if (Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v))
+  for (const v of values) if (Number.isFinite(v)) { lo = Math.min(lo, v); hi = Math.max(hi, v) }
   return [lo, hi]
 }
 

@@ -30,7 +30,11 @@ function loadRenderer() {
       async render(spec: unknown): Promise<string> {
         // vega-lite's notes go to our list, not the console: a spec of ours should raise none.
         const notes: string[] = []
-        const logger = { level: () => logger, error: (...m: unknown[]) => (notes.push(m.join(' ')), logger), warn: (...m: unknown[]) => (notes.push(m.join(' ')), logger), info: () => logger, debug: () => logger }
+        const note = (...m: unknown[]) => {
+          notes.push(m.join(' '))
+          return logger
+        }
+        const logger: Record<string, unknown> = { level: () => logger, error: note, warn: note, info: () => logger, debug: () => logger }
         const compiled = vl.compile(spec as Parameters<typeof vl.compile>[0], { logger: logger as never }).spec
         if (notes.length > 0) throw new Error(`vega-lite: ${notes.join('; ')}`)
         const view = new vega.View(vega.parse(compiled), { renderer: 'none' })

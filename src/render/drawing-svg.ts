@@ -34,7 +34,7 @@ function px(frame: Frame, [x, y]: Point2): [number, number] {
 
 /** The static sketch. */
 export function drawingSvg(drawing: DrawingOutcome, id: string): string {
-  const frame = fit(drawing)
+  const frame = fitFrame(drawing)
   const parts: string[] = []
   const g = drawing.geometry
   const P = (p: Point2) => px(frame, p)
@@ -150,7 +150,7 @@ export function drawingSvg(drawing: DrawingOutcome, id: string): string {
 /** The animation over one cycle (screen only): the solid links moving through the frames. */
 export function animationSvg(drawing: DrawingOutcome, id: string): string | null {
   if (!drawing.frames || drawing.frames.length < 2) return null
-  const frame = fit(drawing)
+  const frame = fitFrame(drawing)
   const g = drawing.geometry
   const P = (p: Point2) => px(frame, p)
   const sliderLength = Math.max(18, 0.34 * g.crank * frame.scale)
@@ -194,7 +194,7 @@ function svgRoot(frame: Frame, id: string, content: string, cls = 'lw-drawing-sv
 }
 
 /** Fit every point of the drawing into its box with a uniform scale. */
-function fit(drawing: DrawingOutcome): Frame {
+function fitFrame(drawing: DrawingOutcome): Frame {
   const points: Point2[] = [...drawing.geometry.pivots]
   for (const pose of drawing.poses) points.push(...Object.values(pose.points))
   for (const frame of drawing.frames ?? []) points.push(...Object.values(frame))

@@ -93,7 +93,7 @@ export function scope(model: NoteModel): Element {
   const covered = new Set(model.outcomes.flatMap((o) => o?.covers ?? []))
   const linkages = model.blocks.flatMap((b) => {
     const o = model.outcomes[b.index]
-    return o && o.covers.includes('kinematics') ? [`#${b.id} (${o.kindLabel.toLowerCase()})`] : []
+    return o?.covers.includes('kinematics') ? [`#${b.id} (${o.kindLabel.toLowerCase()})`] : []
   })
   const topics = TOPICS.filter((t) => covered.has(t.topic)).map((t) => t.covered)
   const exclusions = [...model.meta.exclusions, ...TOPICS.filter((t) => !covered.has(t.topic) && t.excluded).map((t) => t.excluded), ...ALWAYS_EXCLUDED]

@@ -27,7 +27,9 @@ export function expectClose(actual: unknown, expected: unknown, tolerance: Toler
     expect(Array.isArray(actual) || ArrayBuffer.isView(actual), `${path} should be an array`).toBe(true)
     const list = actual as ArrayLike<unknown>
     expect(list.length, `${path}.length`).toBe(expected.length)
-    expected.forEach((e, i) => expectClose(list[i], e, tolerance, `${path}[${i}]`))
+    expected.forEach((e, i) => {
+      expectClose(list[i], e, tolerance, `${path}[${i}]`)
+    })
     return
   }
   if (expected && typeof expected === 'object') {

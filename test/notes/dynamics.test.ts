@@ -24,7 +24,7 @@ function outcomeOf(model: { outcomes: readonly (BlockOutcome | null)[] }, id: st
 
 function result(o: BlockOutcome, name: string): number {
   const r = o.results.find((x) => x.name === name) ?? o.extremes.flatMap((row) => [row.min, row.max, row.absMax, row.minAt, row.maxAt, row.absMaxAt]).find((x) => x.name === name)
-  if (!r || r.value.type !== 'quantity') throw new Error(`${name} is not a quantity: ${JSON.stringify(r?.value)}`)
+  if (r?.value.type !== 'quantity') throw new Error(`${name} is not a quantity: ${JSON.stringify(r?.value)}`)
   return r.value.si
 }
 

@@ -21,7 +21,7 @@ import { messages } from '../messages.js'
 import { reportError } from '../report.js'
 import type { CalcBlock } from '../types.js'
 import { readInputs, type InputSpec, type ReadInputs } from './inputs.js'
-import { type BlockKind, type BlockOutcome, type EvaluationContext } from './kind.js'
+import type { BlockKind, BlockOutcome, EvaluationContext } from './kind.js'
 import { withLinkage } from './linkage-common.js'
 import { readLoad, type LoadReading } from './load-input.js'
 import { fourBarForcesOutcome, sliderCrankForcesOutcome } from './forces-outcome.js'
@@ -165,10 +165,10 @@ function sliderCrankForces(
   const abscissa = words.load_against === 'position' ? 'position' : words.load_against === 'crank-angle' ? 'angle' : 'travel'
   const timed = analysis.fullRotation && analysis.outerDeadCentre !== null && analysis.innerDeadCentre !== null
   if (!timed && abscissa === 'travel' && entries.has('load') && entries.get('load')!.value === 'table') {
-    return fail('invalid-choice', messages['invalid-choice']('load_against', 'travel', ['position', 'crank-angle']) + ': travel is measured from the outer dead centre, and this crank only rocks', place('load_against'))
+    return fail('invalid-choice', `${messages['invalid-choice']('load_against', 'travel', ['position', 'crank-angle'])}: travel is measured from the outer dead centre, and this crank only rocks`, place('load_against'))
   }
   if (!timed && words.load_during !== 'both') {
-    return fail('invalid-choice', messages['invalid-choice']('load_during', words.load_during!, ['both']) + ': the strokes run between dead centres, and this crank only rocks', place('load_during'))
+    return fail('invalid-choice', `${messages['invalid-choice']('load_during', words.load_during!, ['both'])}: the strokes run between dead centres, and this crank only rocks`, place('load_during'))
   }
   if (si.area !== undefined && si.bore !== undefined) return fail('duplicate-input', messages['duplicate-input']('bore` beside `area'), place('bore'))
   const area = si.area ?? (si.bore !== undefined ? (Math.PI * si.bore * si.bore) / 4 : null)

@@ -72,7 +72,7 @@ export const pinBearingKind: BlockKind = {
       const pv = (Math.abs(force) / (d * L)) * v
       pvSum += pv
       if (v > vMax) vMax = v
-      if (pv > pvMax) (pvMax = pv), (pvAt = theta)
+      if (pv > pvMax) { pvMax = pv; pvAt = theta }
     }
     const pinWords = cycle.linkageKind === 'four-bar' ? (pin === 'crank-pin' ? 'input pin A' : 'output pin B') : pin === 'crank-pin' ? 'crank pin' : 'wrist pin'
     const angle = (theta: number): number => toDisplay(source, theta)

@@ -60,7 +60,7 @@ export const studyKind: BlockKind = {
     const vary = entries.get('vary')
     if (!vary) return fail('missing-input', messages['missing-input']('vary', 'the input to vary', 'study'), block.place)
     const input = target.inputs.find((i) => i.name === vary.value)
-    if (!input || input.value.type !== 'quantity') {
+    if (input?.value.type !== 'quantity') {
       const names = target.inputs.filter((i) => i.value.type === 'quantity').map((i) => i.name)
       return fail('invalid-choice', messages['invalid-choice']('vary', vary.value, names), vary.valuePlace)
     }
@@ -111,7 +111,7 @@ export const studyKind: BlockKind = {
     if (andVary || andValues) {
       if (!andVary || !andValues) return fail('missing-input', messages['missing-input'](andVary ? 'and_values' : 'and_vary', 'the second input and its list of values', 'study'), block.place)
       const other = target.inputs.find((i) => i.name === andVary.value)
-      if (!other || other.value.type !== 'quantity' || andVary.value === vary.value) {
+      if (other?.value.type !== 'quantity' || andVary.value === vary.value) {
         return fail('invalid-choice', messages['invalid-choice']('and_vary', andVary.value, target.inputs.filter((i) => i.value.type === 'quantity' && i.name !== vary.value).map((i) => i.name)), andVary.valuePlace)
       }
       const kind2 = other.value.kind
@@ -133,7 +133,7 @@ export const studyKind: BlockKind = {
     for (const r of allResults(target)) known.set(r.name, r)
     for (const name of shownNames) {
       const r = known.get(name)
-      if (!r || r.value.type !== 'quantity') return fail('invalid-choice', messages['invalid-choice']('show', name, [...known.values()].filter((v) => v.value.type === 'quantity').map((v) => v.name).slice(0, 24)), showEntry?.valuePlace ?? block.place)
+      if (r?.value.type !== 'quantity') return fail('invalid-choice', messages['invalid-choice']('show', name, [...known.values()].filter((v) => v.value.type === 'quantity').map((v) => v.name).slice(0, 24)), showEntry?.valuePlace ?? block.place)
     }
     if (shownNames.length === 0) return fail('missing-input', messages['missing-input']('show', 'the results to tabulate', 'study'), block.place)
     // Checks may use the varied block and blocks above it only: blocks below it would not be evaluated again.
@@ -187,7 +187,9 @@ export const studyKind: BlockKind = {
       const shown2 = rows.map((r) => fromSI(r.second!, second!.kind, unit2))
       const d2 = Math.max(decimalsOf(second.texts), columnDecimals(shown2, 4))
       columns.push({ label: second.label, unit: unitLabel(unit2) })
-      rows.forEach((_, i) => cells[i]!.push(formatFixed(shown2[i]!, d2)))
+      rows.forEach((_, i) => {
+        cells[i]!.push(formatFixed(shown2[i]!, d2))
+      })
     }
     const series: { name: string; label: string; kind: QuantityKind; values: Float64Array }[] = []
     for (const name of shownNames) {
@@ -201,7 +203,9 @@ export const studyKind: BlockKind = {
       const shown = Array.from(si, (v) => fromSI(v, k, unit))
       const decimals = columnDecimals(shown, meta.digits)
       columns.push({ label: like.label === name ? name : `${like.label} (${name})`, unit: k === 'ratio' ? '' : unitLabel(unit) })
-      rows.forEach((r, i) => cells[i]!.push(r.results ? (Number.isFinite(shown[i]!) ? formatFixed(shown[i]!, decimals) : '—') : ''))
+      rows.forEach((r, i) => {
+        cells[i]!.push(r.results ? (Number.isFinite(shown[i]!) ? formatFixed(shown[i]!, decimals) : '—') : '')
+      })
       series.push({ name, label: like.label, kind: k, values: si })
     }
     for (const c of checks) columns.push({ label: c.name, unit: '' })

@@ -198,7 +198,9 @@ export const tolerancesKind: BlockKind = {
       const k = info.kind
       // Shown in the block's spread table, one column per result; listed: false keeps them out of the results table.
       const values = statValues[r]!
-      statNames.forEach((stat, i) => results.push({ ...quantity(`${f.name}_${stat}`, `${info.label}, ${statLabels[i]}`, null, k, values[i]!), listed: false }))
+      statNames.forEach((stat, i) => {
+        results.push({ ...quantity(`${f.name}_${stat}`, `${info.label}, ${statLabels[i]}`, null, k, values[i]!), listed: false })
+      })
     })
     if (kind === 'slider-crank') {
       const stroke = figures[0]!
@@ -413,7 +415,7 @@ function toleranceMethod(
       label: `Sensitivities of the ${info.label}`,
       formula: 's_i = \\frac{\\partial R}{\\partial x_i} \\approx \\frac{R(x_i + h) - R(x_i - h)}{2h},\\quad h = 10^{-6}\\,x_i',
       substituted: null,
-      result: first.sensitivities.map((_, i) => (inputs[i]!.upper === inputs[i]!.lower ? null : `s_{\\mathrm{${inputs[i]!.name.replace(/_/g, '\\_')}}} = ${texBare(meta, sensitivityShown(first, i, meta), 'ratio')}`)).filter(Boolean).join(',\\ ') + `\\ \\text{(${per})}`,
+      result: `${first.sensitivities.map((_, i) => (inputs[i]!.upper === inputs[i]!.lower ? null : `s_{\\mathrm{${inputs[i]!.name.replace(/_/g, '\\_')}}} = ${texBare(meta, sensitivityShown(first, i, meta), 'ratio')}`)).filter(Boolean).join(',\\ ')}\\ \\text{(${per})}`,
       note: kind === 'slider-crank'
         ? 'At the middle of each tolerance, on the closed forms of the analysis: stroke S = √((b + a)² − e²) − √((b − a)² − e²), the dead-centre positions √((b ± a)² − e²), the time ratio from the dead-centre angles, μmin = arccos((a + |e|)/b).'
         : 'At the middle of each tolerance, on the closed forms of the crank-rocker’s toggles (the output angles where input and coupler are in line): the swing between them, the time ratio from the input angles at the toggles, and the transmission angle at its extremes θ2 = 0° and 180°.',

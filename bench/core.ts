@@ -114,6 +114,15 @@ export async function runCoreBench(): Promise<void> {
   const mid = (list: number[]) => [...list].sort((p, q) => p - q)[Math.floor(list.length / 2)]!
   const [bareSc, sweepSc, bareFb, sweepFb] = [mid(pairs.slider[0]!), mid(pairs.slider[1]!), mid(pairs.four[0]!), mid(pairs.four[1]!)]
   const arcSweep = await median(() => arc.update(full, { speed: omega }), 5)
+  // Like with like: the bare loop must compute what the sweep computes (the last runs of both are in the arrays).
+  bareSliderCrank(arrays)
+  const swept = [sc.crankAngle, sc.time, sc.position, sc.velocity, sc.acceleration, sc.rodAngle, sc.rodAngularVelocity, sc.rodAngularAcceleration, sc.transmissionAngle]
+  swept.forEach((values, k) => {
+    for (let i = 0; i < POINTS; i += 997) {
+      const [p, q] = [values[i]!, arrays[k]![i]!]
+      if (!(Math.abs(p - q) <= 1e-12 * Math.max(1, Math.abs(q)))) throw new Error(`the bare slider-crank loop differs from the sweep in array ${k} at ${i}: ${q} against ${p}`)
+    }
+  })
 
   // What a general calculation tool gives: compiled expressions, evaluated per point.
   const math = create(all!)

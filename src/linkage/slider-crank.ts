@@ -20,7 +20,7 @@ import {
   solveFourBar,
   type FourBarLinkage,
 } from './four-bar.js'
-import { ROOT_TOLERANCE, includedAngle, safeSqrt, wrapHalfTurn } from './math.js'
+import { ROOT_TOLERANCE, includedAngle, wrapHalfTurn } from './math.js'
 import type { Rotation, SliderSide } from './types.js'
 
 /** Which link drives: the crank (compressor, pump, press, feeder) or the slider (engine, cylinder). */
@@ -129,29 +129,33 @@ function straightMidStroke(crank: number, rod: number, offset: number, side: num
   return (side * (outer + inner)) / 2
 }
 
+/**
+ * One point of a straight path, for callers that want a single value: the same
+ * closed form as the state the analysis, the sweeps and the forces use
+ * ({@link straightKinematics}), through one scratch array (no allocation).
+ */
+let pointScratch: Float64Array | null = null
+const pointState = (): Float64Array => (pointScratch ??= new Float64Array(CRANK_SIN + 1))
+
 /** Slider position x on a straight path at crank angle θ; NaN where the rod cannot reach. */
 export function sliderPosition(crank: number, rod: number, offset: number, side: number, theta: number): number {
-  const u = crank * Math.sin(theta) - offset
-  return crank * Math.cos(theta) + side * safeSqrt(rod * rod - u * u, rod * rod)
+  const point = pointState()
+  straightKinematics(crank, rod, offset, side, theta, point)
+  return point[POSITION]!
 }
 
 /** dx/dθ of a straight-path slider: slider velocity per unit crank speed, m/rad. */
 export function sliderVelocityCoefficient(crank: number, rod: number, offset: number, side: number, theta: number): number {
-  const s = Math.sin(theta)
-  const c = Math.cos(theta)
-  const u = crank * s - offset
-  const root = safeSqrt(rod * rod - u * u, rod * rod)
-  return -crank * s - (side * u * crank * c) / root
+  const point = pointState()
+  straightKinematics(crank, rod, offset, side, theta, point)
+  return point[DX]!
 }
 
 /** d²x/dθ² of a straight-path slider, m/rad². */
 export function sliderAccelerationCoefficient(crank: number, rod: number, offset: number, side: number, theta: number): number {
-  const s = Math.sin(theta)
-  const c = Math.cos(theta)
-  const u = crank * s - offset
-  const root = safeSqrt(rod * rod - u * u, rod * rod)
-  const ac = crank * c
-  return -ac - side * ((ac * ac - u * crank * s) / root + (u * u * ac * ac) / (root * root * root))
+  const point = pointState()
+  straightKinematics(crank, rod, offset, side, theta, point)
+  return point[DDX]!
 }
 
 /** Slider velocity dx/dt for crank speed ω (rad/s, signed), m/s. */
@@ -169,16 +173,16 @@ export function sliderAcceleration(
   omega: number,
   alpha: number,
 ): number {
-  return (
-    sliderAccelerationCoefficient(crank, rod, offset, side, theta) * omega * omega +
-    sliderVelocityCoefficient(crank, rod, offset, side, theta) * alpha
-  )
+  const point = pointState()
+  straightKinematics(crank, rod, offset, side, theta, point)
+  return point[DDX]! * omega * omega + point[DX]! * alpha
 }
 
 /** Rod angle φ (direction A→B from +x) on a straight path, rad. */
 export function rodAngle(crank: number, rod: number, offset: number, side: number, theta: number): number {
-  const u = crank * Math.sin(theta) - offset
-  return Math.atan2(-u, side * safeSqrt(rod * rod - u * u, rod * rod))
+  const point = pointState()
+  straightKinematics(crank, rod, offset, side, theta, point)
+  return Math.atan2(point[ROD_SIN]!, point[ROD_COS]!)
 }
 
 /**
@@ -266,7 +270,23 @@ export function sliderCrankForceKinematics(linkage: SliderCrankLinkage, theta: n
     out[CRANK_SIN] = Math.sin(theta)
     return true
   }
-  const { crank, rod, offset, sliderSide: side } = linkage
+  return straightKinematics(linkage.crank, linkage.rod, linkage.offset, linkage.sliderSide, theta, out)
+}
+
+/** The angle between two lines (not directions), rad in [0, π/2]. */
+function foldedAngle(a: number, b: number): number {
+  const mu = includedAngle(a, b)
+  return mu > Math.PI / 2 ? Math.PI - mu : mu
+}
+
+/**
+ * The closed form of a straight path, the one every caller goes through (the
+ * analysis, the sweeps, the forces and the single-point functions): with
+ * u = a sinθ − e and the root √(b² − u²), position, dx/dθ, d²x/dθ², dφ/dθ,
+ * d²φ/dθ², the rod's cos φ and sin φ and the crank's cos θ and sin θ. Writes
+ * NaN and returns false where the rod cannot reach the path. No allocation.
+ */
+function straightKinematics(crank: number, rod: number, offset: number, side: number, theta: number, out: Float64Array): boolean {
   const s = Math.sin(theta)
   const c = Math.cos(theta)
   const u = crank * s - offset
@@ -292,34 +312,11 @@ export function sliderCrankForceKinematics(linkage: SliderCrankLinkage, theta: n
   return true
 }
 
-/** The angle between two lines (not directions), rad in [0, π/2]. */
-function foldedAngle(a: number, b: number): number {
-  const mu = includedAngle(a, b)
-  return mu > Math.PI / 2 ? Math.PI - mu : mu
-}
-
+/** The full state of a straight path: the closed form, then the rod angle and the transmission angle from it. */
 function straightState(crank: number, rod: number, offset: number, side: number, theta: number, out: Float64Array): boolean {
-  const s = Math.sin(theta)
-  const c = Math.cos(theta)
-  const u = crank * s - offset
-  const rod2 = rod * rod
-  const disc = rod2 - u * u
-  if (!(disc > -ROOT_TOLERANCE * rod2)) {
-    out.fill(Number.NaN, 0, 7)
-    return false
-  }
-  const root = disc > 0 ? Math.sqrt(disc) : 0
-  const ac = crank * c
-  const as = crank * s
-  const root3 = root * root * root
-  out[POSITION] = ac + side * root
-  out[DX] = -as - (side * u * ac) / root
-  out[DDX] = -ac - side * ((ac * ac - u * as) / root + (u * u * ac * ac) / root3)
-  out[ROD_ANGLE] = Math.atan2(-u, side * root)
-  out[DPHI] = (-side * ac) / root
-  out[DDPHI] = (side * as) / root - (side * ac * ac * u) / root3
-  // Angle between the rod and the normal to the path: acos(|u|/b).
-  const ratio = Math.abs(u) / rod
-  out[TRANSMISSION] = Math.acos(Math.min(ratio, 1))
+  if (!straightKinematics(crank, rod, offset, side, theta, out)) return false
+  out[ROD_ANGLE] = Math.atan2(out[ROD_SIN]!, out[ROD_COS]!)
+  // Angle between the rod and the normal to the path: acos(|u|/b) = acos(|sin φ|).
+  out[TRANSMISSION] = Math.acos(Math.min(Math.abs(out[ROD_SIN]!), 1))
   return true
 }

@@ -158,3 +158,15 @@ export function columnDecimals(values: ArrayLike<number>, digits: number): numbe
   if (largest === 0) return 0
   return Math.min(10, Math.max(0, digits - 1 - Math.floor(Math.log10(largest))))
 }
+
+/**
+ * A message of the linkage core in the note's units: the core writes lengths in
+ * millimetres (its messages carry the SI numbers in their details); a note shown
+ * in other length units reads them in its own.
+ */
+export function inNoteUnits(text: string, units: DisplayUnits): string {
+  const unit = displayUnit('length', units)
+  if (unit === 'mm') return text
+  const label = unitLabel(unit)
+  return text.replace(/(-?\d+(?:\.\d+)?(?:e[-+]?\d+)?) mm\b/g, (_, n: string) => `${Number(fromSI(Number(n) / 1000, 'length', unit).toPrecision(6))} ${label}`)
+}

@@ -100,3 +100,14 @@ describe('budgets of one line', () => {
     expect(built.ok).toBe(true)
   })
 })
+
+describe('the core’s messages in the note’s units', () => {
+  it('should word a refused linkage of a US note in inches, not the core’s millimetres', async () => {
+    const note = `---\ntitle: US note\nnumber: T-1\nrevision: A\nstatus: draft\ndate: 2026-01-05\nunits:\n  system: US\n---\n\n\`\`\`slider-crank #drive\ncrank: 0.8 in\nrod: 2 in\noffset: 3.2 in\nspeed: 60 rpm\n\`\`\`\n`
+    const { file } = await build(note)
+    const error = file.messages.find((m) => m.ruleId === 'linkage-error')!
+    // 2 in of rod cannot reach a path 3.2 in off the crank centre: crank + rod = 2.8 in.
+    expect(error.reason).toBe('The connecting rod (2 in) cannot reach the slider path at any crank angle: the offset (3.2 in) exceeds crank + rod = 2.8 in (cannot-assemble)')
+    expect(error.reason).not.toMatch(/mm/)
+  })
+})

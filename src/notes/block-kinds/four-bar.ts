@@ -3,7 +3,7 @@
  * time ratio, output velocity and acceleration, and a coupler-point path.
  */
 import { FOUR_BAR_STATE, FourBarSweep, THETA3, analyseFourBar, fourBar, fourBarState, wrapTurn, type Extremes, type FourBarAnalysis } from '../../linkage/index.js'
-import { displayUnit, formatNumber, showQuantity, unitLabel } from '../display.js'
+import { displayUnit, formatNumber, inNoteUnits, showQuantity, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
 import { reportWarning } from '../report.js'
 import type { MethodStep, NamedValue } from '../types.js'
@@ -223,8 +223,9 @@ function fourBarWarnings(analysis: FourBarAnalysis, place: import('unist').Posit
   // An output-driven linkage's transmission angle reaches 0° at its dead points: the dead-point warning says so.
   const warnings: string[] = []
   for (const w of analysis.warnings) {
-    warnings.push(w.message)
-    reportWarning(context.file, 'linkage-warning', messages['linkage-warning'](w.message), place)
+    const text = inNoteUnits(w.message, meta.units)
+    warnings.push(text)
+    reportWarning(context.file, 'linkage-warning', messages['linkage-warning'](text), place)
   }
   if (analysis.transmissionWorst.value < TRANSMISSION_LIMIT && analysis.linkage.driver !== 'output') {
     const text = messages['transmission-angle-low'](angle(analysis.transmissionWorst.value), `θ2 = ${angle(analysis.transmissionWorst.theta)}`, '40°')

@@ -3,6 +3,7 @@
  * step from a core error to a positioned message.
  */
 import { LinkageError } from '../../linkage/index.js'
+import { inNoteUnits } from '../display.js'
 import { messages } from '../messages.js'
 import { reportError } from '../report.js'
 import type { CalcBlock } from '../types.js'
@@ -41,7 +42,7 @@ export function withLinkage<T>(block: CalcBlock, context: EvaluationContext, run
     return run()
   } catch (error) {
     if (error instanceof LinkageError) {
-      reportError(context.file, 'linkage-error', messages['linkage-error'](`${error.message} (${error.code})`), block.place, error)
+      reportError(context.file, 'linkage-error', messages['linkage-error'](`${inNoteUnits(error.message, context.meta.units)} (${error.code})`), block.place, error)
       return null
     }
     throw error

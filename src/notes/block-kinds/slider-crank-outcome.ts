@@ -12,7 +12,7 @@ import {
   type Extremes,
   type SliderCrankAnalysis,
 } from '../../linkage/index.js'
-import { displayUnit, formatNumber, showQuantity, unitLabel } from '../display.js'
+import { displayUnit, formatNumber, inNoteUnits, showQuantity, unitLabel } from '../display.js'
 import { messages } from '../messages.js'
 import { reportWarning } from '../report.js'
 import type { CalcBlock, InputValue, MethodStep, NamedValue } from '../types.js'
@@ -279,6 +279,7 @@ export function sliderCrankWarnings(view: SliderCrankView, block: CalcBlock, con
     if (warning.code === 'dead-points-need-stored-energy') {
       text = `The slider drives: at the dead points (${view.convention.label} ${analysis.deadPoints.map((p) => angle(p.theta)).join(' and ')}) it cannot turn the crank, so a flywheel or other stored energy must carry the crank through them`
     }
+    text = inNoteUnits(text, context.meta.units)
     warnings.push(text)
     reportWarning(context.file, 'linkage-warning', messages['linkage-warning'](text), block.place)
   }

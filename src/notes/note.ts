@@ -159,11 +159,11 @@ export function fingerprint(tool: Tool, source: string, dataFiles: readonly Data
 }
 
 function gatherAssumptions(outcomes: readonly (BlockOutcome | null)[]): Assumption[] {
-  const own = outcomes.flatMap((o) => (o?.block.kind === 'assumptions' ? o.assumptions : []))
+  const own = outcomes.flatMap((o) => (o?.gathered === 'assumptions' ? o.assumptions : []))
   const method = new Map<string, Assumption>()
   const covered = new Set(outcomes.flatMap((o) => o?.covers ?? []))
   for (const o of outcomes) {
-    if (!o || o.block.kind === 'assumptions') continue
+    if (!o || o.gathered === 'assumptions') continue
     for (const a of o.assumptions) {
       if (a.droppedWith && covered.has(a.droppedWith)) continue
       const seen = method.get(a.text)

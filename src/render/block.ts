@@ -32,7 +32,7 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
     ])
   }
   const parts: (Element | null)[] = [heading]
-  if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, block.kind === 'given' ? 'Design inputs' : 'Inputs'))
+  if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, 'Inputs'))
   for (const data of outcome.data) parts.push(dataTable(data, context))
   if (outcome.method.length > 0) parts.push(methodList(outcome, context))
   const listed = outcome.results.filter((r) => r.listed !== false)
@@ -51,11 +51,11 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
   if (outcome.chart) parts.push(chartFigure(block, outcome, context))
   if (outcome.drawing) parts.push(drawingFigure(block, outcome))
   // The note's own assumptions and conclusions are printed once, in their sections; here, where to find them.
-  if (block.kind === 'assumptions') {
+  if (outcome.gathered === 'assumptions') {
     const numbers = outcome.assumptions.map((a) => context.assumptionNumbers.get(a.text) ?? '').filter(Boolean)
     parts.push(h('p.lw-pointer', [`The note’s assumptions ${numbers.length > 1 ? `${numbers[0]}–${numbers[numbers.length - 1]}` : (numbers[0] ?? '')} are listed, with those of the methods, under `, h('a', { href: '#assumptions' }, 'Assumptions'), '.']))
   }
-  if (block.kind === 'conclusions') {
+  if (outcome.gathered === 'conclusions') {
     parts.push(h('p.lw-pointer', ['The note’s conclusions are gathered, with what the checks show and the open items, under ', h('a', { href: '#conclusions' }, 'Conclusions'), '.']))
   }
   return h(`section.lw-block.lw-kind-${block.kind}`, { id: blockAnchor(block) }, parts)

@@ -139,7 +139,7 @@ export function summary(model: NoteModel, context: RenderContext): Element {
   }
   const checks = failuresFirst(model.checks)
   const tally = tallyChecks(model.checks)
-  const errored = model.outcomes.some((o, i) => o === null && model.blocks[i]!.kind !== 'assumptions')
+  const errored = model.outcomes.some((o) => o === null)
   const words = tallyWords(tally)
   return h('section.lw-section', { id: 'summary' }, [
     h('h2', 'Summary'),

@@ -26,6 +26,6 @@ export const assumptionsKind: BlockKind = {
       const flagged = TO_VERIFY.test(item.text) || /^(yes|true)$/i.test(item.fields.verify ?? '')
       assumptions.push({ text: item.text.replace(TO_VERIFY, ''), verify: flagged, from: null })
     }
-    return outcome(block, 'Assumptions', { assumptions })
+    return outcome(block, 'Assumptions', { assumptions, gathered: 'assumptions' })
   },
 }

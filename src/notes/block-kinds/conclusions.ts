@@ -19,6 +19,6 @@ export const conclusionsKind: BlockKind = {
       return null
     }
     for (const item of block.body.items) citeSources(item.text, item.place, context)
-    return outcome(block, 'Conclusions', { conclusions: block.body.items.map((item) => item.text) })
+    return outcome(block, 'Conclusions', { conclusions: block.body.items.map((item) => item.text), gathered: 'conclusions' })
   },
 }

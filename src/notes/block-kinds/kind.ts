@@ -350,6 +350,11 @@ export interface BlockOutcome {
   readonly data: readonly DataTable[]
   /** The core analysis, for the blocks that build on this one, or null. */
   readonly core: CoreHandle | null
+  /**
+   * A package section that prints this block's own content in place of the block
+   * (the note's assumptions, its conclusions): the block then points there.
+   */
+  readonly gathered: 'assumptions' | 'conclusions' | null
 }
 
 /** A block kind. */
@@ -388,6 +393,7 @@ export function outcome(block: CalcBlock, kindLabel: string, parts: Partial<Bloc
     drawing: null,
     data: [],
     core: null,
+    gathered: null,
     ...parts,
   }
 }

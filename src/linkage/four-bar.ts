@@ -438,20 +438,7 @@ export function solveFourBar(
   const c3 = Math.cos(theta3)
   const s3 = Math.sin(theta3)
   const theta4 = Math.atan2(ay + coupler * s3 - groundY, ax + coupler * c3 - groundX)
-  const c4 = Math.cos(theta4)
-  const s4 = Math.sin(theta4)
-  // Loop closure differentiated once and twice, solved by Cramer's rule (det ∝ sin(θ3 − θ4)).
-  const sin34 = s3 * c4 - c3 * s4
-  const h3 = (-input * (s2 * c4 - c2 * s4)) / (coupler * sin34)
-  const h4 = (-input * (s2 * c3 - c2 * s3)) / (output * sin34)
-  const re = ax + coupler * h3 * h3 * c3 - output * h4 * h4 * c4
-  const im = ay + coupler * h3 * h3 * s3 - output * h4 * h4 * s4
-  out[at + THETA3] = theta3
-  out[at + THETA4] = theta4
-  out[at + H3] = h3
-  out[at + H4] = h4
-  out[at + H3P] = -(re * c4 + im * s4) / (coupler * sin34)
-  out[at + H4P] = -(re * c3 + im * s3) / (output * sin34)
+  rates(input, coupler, output, c2, s2, ax, ay, theta3, c3, s3, theta4, Math.cos(theta4), Math.sin(theta4), out, at)
   return true
 }
 
@@ -499,11 +486,15 @@ function solveNearChangePoint(linkage: FourBarLinkage, sign: number, theta2: num
 
 /** θ3, θ4 and the velocity and acceleration coefficients from the loop closure, into `out` from `at`. */
 function writeRates(a: number, b: number, c: number, c2: number, s2: number, ax: number, ay: number, theta3: number, theta4: number, out: Float64Array, at: number): void {
-  const c3 = Math.cos(theta3)
-  const s3 = Math.sin(theta3)
-  const c4 = Math.cos(theta4)
-  const s4 = Math.sin(theta4)
-  // Loop closure differentiated once and twice, solved by Cramer's rule (det ∝ sin(θ3 − θ4)).
+  rates(a, b, c, c2, s2, ax, ay, theta3, Math.cos(theta3), Math.sin(theta3), theta4, Math.cos(theta4), Math.sin(theta4), out, at)
+}
+
+/**
+ * The one place the four-bar's rates are written: loop closure differentiated
+ * once and twice, solved by Cramer's rule (det ∝ sin(θ3 − θ4)), with the
+ * angles' cosines and sines the caller already has.
+ */
+function rates(a: number, b: number, c: number, c2: number, s2: number, ax: number, ay: number, theta3: number, c3: number, s3: number, theta4: number, c4: number, s4: number, out: Float64Array, at: number): void {
   const sin34 = s3 * c4 - c3 * s4
   const h3 = (-a * (s2 * c4 - c2 * s4)) / (b * sin34)
   const h4 = (-a * (s2 * c3 - c2 * s3)) / (c * sin34)

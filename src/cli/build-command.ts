@@ -27,6 +27,7 @@ import { gitDate } from './git.js'
 import { lockOutput, releaseHeldLocks } from './lock.js'
 import { katexDist, templatePath } from './paths.js'
 import { noteFile, pathProblemFile, report } from './reporter.js'
+import { packageKey, unchanged, usesGitDate, type KeyInputs } from './incremental.js'
 import { onStop } from './signals.js'
 
 /** Options of the build command. */
@@ -37,6 +38,8 @@ export interface BuildOptions {
   readonly paper: 'A4' | 'Letter' | null
   readonly browser: string | null
   readonly quiet: boolean
+  /** Rebuild every package, changed or not. */
+  readonly force?: boolean
 }
 
 /** Exit codes of the build command. */
@@ -82,6 +85,8 @@ interface Staged {
   readonly model: NoteModel
   readonly date: string | null
   readonly stem: string
+  /** What the package is built from, for its key (the PDF's presence is known only after printing). */
+  readonly keyInputs: Omit<KeyInputs, 'dataFiles' | 'pdf'>
 }
 
 /** Report a problem of a note's file or package at 1:1 of the note (an error unless said). */
@@ -152,6 +157,8 @@ async function buildLocked(
   err: (text: string) => void,
 ): Promise<number> {
   let failed = failedBefore
+  let built = 0
+  let skipped = 0
   // The renderer is loaded only by commands that render.
   const { buildNote } = await import('../build.js')
   const template = readFileSync(templatePath('package.html'), 'utf8')
@@ -178,8 +185,23 @@ async function buildLocked(
       failed = true
       continue
     }
+    const tool = toolWithBuild(TOOL)
+    const keyInputs = {
+      noteText: String(file.value),
+      notePath: shown,
+      build: tool.build ?? '',
+      version: tool.version,
+      commit: COMMIT,
+      paper: options.paper,
+      gitDate: usesGitDate(String(file.value)) ? gitDate(path) : null,
+    }
+    if (!options.force && unchanged(folder, { ...keyInputs, pdf: options.pdf }, dataReader(path))) {
+      skipped++
+      if (!options.quiet) out(`${shown}: unchanged, ${join(folder, 'index.html')}\n`)
+      continue
+    }
     try {
-      const built = await buildNote(file, { tool: toolWithBuild(TOOL), notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
+      const built = await buildNote(file, { tool, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
       if (!built.ok || built.html === null) {
         failed = true
         if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)
@@ -204,7 +226,7 @@ async function buildLocked(
         failed = true
         continue
       }
-      staged.push({ file, folder, staged: stagedFolder, model: built.model, date: built.date, stem: basename(path, extname(path)) })
+      staged.push({ file, folder, staged: stagedFolder, model: built.model, date: built.date, stem: basename(path, extname(path)), keyInputs })
     } catch (error) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
       fail(file, 'internal-error', messages['internal-error'](error instanceof Error ? error.message : String(error)))
@@ -263,7 +285,9 @@ async function buildLocked(
         continue
       }
       try {
-        item.staged.commit()
+        const dataFiles = item.model.dataFiles.map((f) => ({ path: f.path, sha256: f.sha256 }))
+        item.staged.commit({ key: packageKey({ ...item.keyInputs, dataFiles, pdf: printed.has(item) }), dataFiles })
+        built++
       } catch (error) {
         failed = true
         if (error instanceof ForeignFolderError) fail(item.file, 'package-folder', messages['package-folder'](`${error.message}, so the package is not written there`))
@@ -285,6 +309,8 @@ async function buildLocked(
       }
     }
   }
+  const notBuilt = found.notes.length - built - skipped
+  if (!options.quiet) out(`built ${built}, unchanged ${skipped}${notBuilt > 0 ? `, not built ${notBuilt}` : ''} of ${found.notes.length} note${found.notes.length === 1 ? '' : 's'}\n`)
   err(report(files, { quiet: options.quiet }))
   if (failed) return EXIT.errors
   return noBrowser ? EXIT.noBrowser : EXIT.ok

@@ -286,8 +286,8 @@ let counter = 0
 export interface StagedFolder {
   /** The fresh folder (more files, such as the PDF, may be added before commit). */
   readonly path: string
-  /** Replace the target with the fresh folder (rename), then drop the old one. */
-  commit(): void
+  /** Replace the target with the fresh folder (rename), then drop the old one; `record` joins the manifest. */
+  commit(record?: Readonly<Record<string, unknown>>): void
   /** Drop the fresh folder; the target stays as it was. */
   discard(): void
 }
@@ -328,14 +328,14 @@ export function stageFolder(target: string, files: ReadonlyMap<string, string | 
   }
   return {
     path: fresh,
-    commit() {
+    commit(record = {}) {
       const foreign = foreignContent(target)
       if (foreign !== null) {
         rmSync(fresh, { recursive: true, force: true })
         open.delete(fresh)
         throw new ForeignFolderError(foreign)
       }
-      writeFileSync(join(fresh, MANIFEST), `${JSON.stringify({ tool: 'linkwright', files: filesUnder(fresh) }, null, 2)}\n`)
+      writeFileSync(join(fresh, MANIFEST), `${JSON.stringify({ tool: 'linkwright', files: filesUnder(fresh), ...record }, null, 2)}\n`)
       try {
         if (existsSync(target)) renameSync(target, old)
         renameSync(fresh, target)

@@ -64,6 +64,7 @@ async function main(argv: readonly string[]): Promise<number> {
       paper: paper === null ? null : /^a4$/i.test(paper) ? 'A4' : 'Letter',
       browser: typeof values.browser === 'string' ? values.browser : null,
       quiet: values.quiet === true,
+      force: values.force === true,
     },
     out,
     err,

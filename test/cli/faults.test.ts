@@ -102,7 +102,9 @@ describe('a build never deletes or replaces what it did not write', () => {
     rmSync(join(dir, 'pump'), { recursive: true })
     expect(run(['build', '.', '--out', '.', '--no-pdf'], dir).code).toBe(0)
     writeFileSync(join(dir, 'pump', 'review-notes.txt'), 'checker’s notes')
-    const again = run(['build', '.', '--out', '.', '--no-pdf'], dir)
+    // Unchanged, the package is left alone; rebuilt (--force), it is not replaced either.
+    expect(run(['build', '.', '--out', '.', '--no-pdf'], dir).stdout).toMatch(/pump\.md: unchanged/)
+    const again = run(['build', '.', '--out', '.', '--no-pdf', '--force'], dir)
     expect(again.code).toBe(1)
     expect(again.stderr).toMatch(/holds files linkwright did not write \(review-notes\.txt\)/)
     expect(readFileSync(join(dir, 'pump', 'review-notes.txt'), 'utf8')).toBe('checker’s notes')
@@ -245,8 +247,8 @@ describe('where the output goes', () => {
         const result = run(['build', 'notes', '--out', out, '--no-pdf'], dir)
         noStack(result.stderr)
         expect(result.code, result.stderr).toBe(0)
-        // The second build finds the same two notes: the packages are never taken for notes.
-        expect(result.stdout.trim().split('\n')).toHaveLength(2)
+        // The second build finds the same two notes (unchanged): the packages are never taken for notes.
+        expect(result.stdout).toMatch(round === 0 ? /^built 2, unchanged 0 of 2 notes$/m : /^built 0, unchanged 2 of 2 notes$/m)
       }
       expect(existsSync(join(dir, out, 'a', 'index.html'))).toBe(true)
       expect(existsSync(join(dir, out, 'sub', 'b', 'index.html'))).toBe(true)
@@ -291,7 +293,7 @@ describe.skipIf(browser === null)('faults while printing', () => {
     const before = snapshot(join(dir, 'out'))
     expect([...before.keys()].filter((k) => k.endsWith('.pdf'))).toEqual(['n1/n1.pdf', 'n2/n2.pdf'])
     // 400 KiB: the HTML (about 140 KB) is written; Chromium cannot write its print.
-    const result = run(['build', 'notes'], dir, {}, 'ulimit -f 400')
+    const result = run(['build', 'notes', '--force'], dir, {}, 'ulimit -f 400')
     noStack(result.stderr)
     expect(result.code).toBe(1)
     expect(result.stderr).toMatch(/n1\.md:1:1 {2}error {2}Cannot print the PDF: .*; the previous package is as it was {2}\[pdf-print\]/)
@@ -302,7 +304,7 @@ describe.skipIf(browser === null)('faults while printing', () => {
     const dir = printed('nobrowser', 1)
     const before = snapshot(join(dir, 'out'))
     writeFileSync(join(dir, 'notes', 'new.md'), NOTE)
-    const result = run(['build', 'notes', '--browser', '/bin/false'], dir)
+    const result = run(['build', 'notes', '--browser', '/bin/false', '--force'], dir)
     noStack(result.stderr)
     expect(result.code).toBe(3)
     expect(result.stderr).toMatch(/n1\.md:1:1 {2}warning {2}Not replaced: the previous package in out\/n1 has a PDF/)

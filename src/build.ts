@@ -10,6 +10,7 @@ import { hasErrors } from './notes/report.js'
 import { resultsDocument } from './notes/results-json.js'
 import type { ChartCache } from './render/chart-svg.js'
 import { renderCharts } from './render/charts.js'
+import { tableCsv, tableCsvPath } from './render/csv.js'
 import { renderPackage } from './render/package.js'
 
 /** Options for {@link buildNote}. */
@@ -52,6 +53,8 @@ export async function buildNote(file: VFile, options: BuildNoteOptions): Promise
   const { charts, files, cached } = await renderCharts(model, options.chartCache)
   // 3. The package (depends on 1 and 2).
   const html = renderPackage(tree, model, file, { template: options.template, notePath: options.notePath, date, commit: options.commit, charts })
+  // Each table block also as CSV, for the spreadsheet a reviewer checks it in.
+  for (const o of model.outcomes) if (o?.table) files.set(tableCsvPath(o.block.id, o.block.index), tableCsv(o.table))
   const sorted = new Map([...files].sort(([a], [b]) => a.localeCompare(b)))
   return { model, html, results, files: sorted, ok: !hasErrors(file), date, charts: { rendered: charts.size, cached } }
 }

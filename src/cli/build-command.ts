@@ -5,6 +5,7 @@
  *     out/<note>/<note>.pdf        printed by Chromium (unless --no-pdf)
  *     out/<note>/results.json      inputs, results and checks in SI and as shown
  *     out/<note>/charts/*.vl.json  the vega-lite spec of each chart
+ *     out/<note>/tables/*.csv      each table block as CSV
  *     out/<note>/assets/…          styles and math fonts (nothing is fetched)
  *
  * Each package is written beside its folder, printed there, and then renamed

@@ -8,6 +8,7 @@ import type { BlockOutcome } from '../notes/block-kinds/kind.js'
 import { displayValue, formatNumber, unitLabel } from '../notes/display.js'
 import type { NoteModel } from '../notes/note.js'
 import type { CalcBlock, InputValue, NamedValue } from '../notes/types.js'
+import { tableCsvPath } from './csv.js'
 import { animationSvg, drawingSvg } from './drawing-svg.js'
 import { texNode } from './equation.js'
 import { checkRowClass, table, verdict, withCitations, type ReferenceNumbers } from './markup.js'
@@ -47,7 +48,7 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
     )
   }
   if (outcome.checks.length > 0) parts.push(checksTable(outcome, context))
-  if (outcome.table) parts.push(sweepTable(outcome, context))
+  if (outcome.table) parts.push(sweepTable(block, outcome, context))
   if (outcome.chart) parts.push(chartFigure(block, outcome, context))
   if (outcome.drawing) parts.push(drawingFigure(block, outcome))
   // The note's own assumptions and conclusions are printed once, in their sections; here, where to find them.
@@ -227,14 +228,17 @@ function checksTable(outcome: BlockOutcome, context: RenderContext): Element {
   )
 }
 
-function sweepTable(outcome: BlockOutcome, context: RenderContext): Element {
+function sweepTable(block: CalcBlock, outcome: BlockOutcome, context: RenderContext): Element {
   const t = outcome.table!
   const anchor = context.model.blocks.find((b) => b.id === t.of)
+  const csv = tableCsvPath(block.id, block.index)
   return h('div.lw-sweep-table', [
     h('p.lw-part-title', [
       'Values over the cycle of ',
       anchor ? h('a', { href: `#${blockAnchor(anchor)}` }, `#${t.of}`) : `#${t.of}`,
-      '; marked rows are the dead centres, toggles and limits.',
+      '; marked rows are the dead centres, toggles and limits. Also as CSV: ',
+      h('a', { href: csv }, h('code', csv)),
+      '.',
     ]),
     table(
       'lw-sweep',

@@ -43,6 +43,12 @@ export const commands: readonly CommandSpec[] = [
     summary: 'Evaluate design notes and their acceptance checks without rendering; fail on an error or a FAIL. For CI.',
     options: [{ name: 'quiet', type: 'boolean', description: 'print errors and failed checks only' }, help],
   },
+  {
+    name: 'verify',
+    usage: 'linkwright verify <note.md> <package folder | results.json>',
+    summary: 'Recompute a note and compare it with a built package: match, or what differs (note, data, tool, results).',
+    options: [help],
+  },
 ]
 
 /** Help text of the tool or of one command. */
@@ -63,6 +69,8 @@ export function helpText(name?: string): string {
       'Exit status: 0 all good; 1 a note has errors (or, for check, an acceptance check FAILs);',
       '2 the command line is wrong; 3 PDFs were asked for but no browser was found or started;',
       '4 the output folder cannot be created or written. Ctrl-C or SIGTERM: 130 or 143, nothing half-written.',
+      'verify: 0 the package matches; 16 + 1 note edited, + 2 a data file changed, + 4 the tool changed,',
+      '+ 8 results or checks differ.',
       '',
     ].join('\n')
   }

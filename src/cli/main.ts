@@ -45,6 +45,10 @@ async function main(argv: readonly string[]): Promise<number> {
     out(helpText(name))
     return 0
   }
+  if (name === 'verify') {
+    const { verifyCommand } = await import('./verify-command.js')
+    return verifyCommand(parsed.positionals, out, err)
+  }
   const paths = parsed.positionals.length > 0 ? parsed.positionals : ['reports']
   if (name === 'check') {
     const { checkCommand } = await import('./check-command.js')

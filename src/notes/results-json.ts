@@ -3,6 +3,7 @@
  * quantity in SI base units (`si`) and as displayed, for other tools and CI.
  * The schema is documented in the README; keys are stable.
  */
+import { createHash } from 'node:crypto'
 import type { VFile } from 'vfile'
 import { displayValue } from './display.js'
 import { KINDS } from './quantity.js'
@@ -53,6 +54,8 @@ export function resultsDocument(model: NoteModel, file: VFile, notePath: string,
     schema: RESULTS_SCHEMA,
     tool: { name: model.tool.name, version: model.tool.version, ...(model.tool.build ? { build: model.tool.build } : {}) },
     fingerprint: model.fingerprint,
+    // The note's own digest (line endings normalised), so a later check can tell an edited note from a changed tool.
+    noteSha256: createHash('sha256').update(String(file.value).replace(/\r\n?/g, '\n')).digest('hex'),
     dataFiles: model.dataFiles.map((f) => ({ path: f.path, sha256: f.sha256 })),
     note: notePath,
     document: {

@@ -6,6 +6,7 @@
  *     out/<note>/results.json      inputs, results and checks in SI and as shown
  *     out/<note>/charts/*.vl.json  the vega-lite spec of each chart
  *     out/<note>/tables/*.csv      each table block as CSV
+ *     out/index.html               the package site: every package in out/, with a filter
  *     out/<note>/assets/…          styles and math fonts (nothing is fetched)
  *
  * Each package is written beside its folder, printed there, and then renamed
@@ -30,6 +31,7 @@ import { katexDist, templatePath } from './paths.js'
 import { noteFile, pathProblemFile, report } from './reporter.js'
 import { packageKey, unchanged, usesGitDate, type KeyInputs } from './incremental.js'
 import { onStop } from './signals.js'
+import { writeSite } from './site.js'
 
 /** Options of the build command. */
 export interface BuildOptions {
@@ -309,6 +311,14 @@ async function buildLocked(
         // already committed or gone
       }
     }
+  }
+  // The package site: every package in the output folder, built now or before.
+  try {
+    const refused = writeSite(options.out)
+    if (refused) err(`linkwright: ${refused}\n`)
+    else if (!options.quiet) out(`index of the packages: ${join(options.out, 'index.html')}\n`)
+  } catch (error) {
+    err(`linkwright: cannot write the package index in ${options.out} (${codeOf(error)})\n`)
   }
   const notBuilt = found.notes.length - built - skipped
   if (!options.quiet) out(`built ${built}, unchanged ${skipped}${notBuilt > 0 ? `, not built ${notBuilt}` : ''} of ${found.notes.length} note${found.notes.length === 1 ? '' : 's'}\n`)

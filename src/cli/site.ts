@@ -19,7 +19,7 @@ interface SavedResults {
 export function siteEntries(outDir: string): SiteEntry[] {
   const entries: SiteEntry[] = []
   const walk = (dir: string, depth: number) => {
-    let names
+    let names: import('node:fs').Dirent[]
     try {
       names = readdirSync(dir, { withFileTypes: true })
     } catch {

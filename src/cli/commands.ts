@@ -44,6 +44,12 @@ export const commands: readonly CommandSpec[] = [
     options: [{ name: 'quiet', type: 'boolean', description: 'print errors and failed checks only' }, help],
   },
   {
+    name: 'compare',
+    usage: 'linkwright compare <note.md> <revision> [<revision>] [--json]',
+    summary: 'What moved in a note between two git revisions (or one and the working tree): inputs, results, checks, blocks.',
+    options: [{ name: 'json', type: 'boolean', description: 'print the changes as one JSON object' }, help],
+  },
+  {
     name: 'verify',
     usage: 'linkwright verify <note.md> <package folder | results.json>',
     summary: 'Recompute a note and compare it with a built package: match, or what differs (note, data, tool, results).',

@@ -45,6 +45,10 @@ async function main(argv: readonly string[]): Promise<number> {
     out(helpText(name))
     return 0
   }
+  if (name === 'compare') {
+    const { compareCommand } = await import('./compare-command.js')
+    return compareCommand(parsed.positionals, values.json === true, out, err)
+  }
   if (name === 'verify') {
     const { verifyCommand } = await import('./verify-command.js')
     return verifyCommand(parsed.positionals, out, err)

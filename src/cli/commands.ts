@@ -44,6 +44,12 @@ export const commands: readonly CommandSpec[] = [
     options: [{ name: 'quiet', type: 'boolean', description: 'print errors and failed checks only' }, help],
   },
   {
+    name: 'init',
+    usage: 'linkwright init [folder]',
+    summary: 'Start a design repository: a notes folder with a starter note that builds, and a .gitignore for out/.',
+    options: [help],
+  },
+  {
     name: 'compare',
     usage: 'linkwright compare <note.md> <revision> [<revision>] [--json]',
     summary: 'What moved in a note between two git revisions (or one and the working tree): inputs, results, checks, blocks.',

@@ -45,6 +45,10 @@ async function main(argv: readonly string[]): Promise<number> {
     out(helpText(name))
     return 0
   }
+  if (name === 'init') {
+    const { initCommand } = await import('./init-command.js')
+    return initCommand(parsed.positionals, out, err)
+  }
   if (name === 'compare') {
     const { compareCommand } = await import('./compare-command.js')
     return compareCommand(parsed.positionals, values.json === true, out, err)

@@ -42,6 +42,7 @@ export default defineConfig({
         cli: 'src/cli/main.ts',
         index: 'src/index.ts',
         bench: 'bench/run.ts',
+        'build-worker': 'src/cli/build-worker.ts',
       },
       output: { format: 'es', entryFileNames: '[name].js', chunkFileNames: 'chunks/[name]-[hash].js' },
       external: [...builtinModules, ...builtinModules.map((m) => `node:${m}`), 'puppeteer-core'],

@@ -16,20 +16,21 @@
 import { existsSync, lstatSync, readFileSync, readdirSync } from 'node:fs'
 import { basename, extname, join, relative } from 'node:path'
 import type { VFile } from 'vfile'
-import type { NoteModel } from '../notes/note.js'
 import { messages, SOURCE, type RuleId } from '../notes/messages.js'
-import type { ChartCache } from '../render/chart-svg.js'
 import { statusWords } from '../render/sections.js'
 import { tallyChecks, tallyWords } from '../notes/tally.js'
 import { COMMIT, TOOL } from '../version.js'
 import { toolWithBuild } from './tool-build.js'
-import { codeOf, discardOpenStages, findNotes, ForeignFolderError, foreignContent, makeFolder, planFolders, stageFolder, tidyOutput, writeFileAtomic, type StagedFolder } from './files.js'
+import { codeOf, discardOpenStages, findNotes, ForeignFolderError, foreignContent, makeFolder, planFolders, stageFolder, tidyOutput, type StagedFolder } from './files.js'
 import { dataReader } from './data-files.js'
 import { gitDate } from './git.js'
 import { lockOutput, releaseHeldLocks } from './lock.js'
 import { katexDist, templatePath } from './paths.js'
 import { noteFile, pathProblemFile, report } from './reporter.js'
 import { packageKey, unchanged, usesGitDate, type KeyInputs } from './incremental.js'
+import { buildAll } from './pool.js'
+import { restoreMessages, type BuildReply, type BuiltSummary } from './build-one.js'
+import { progressLine } from './progress.js'
 import { onStop } from './signals.js'
 import { writeSite } from './site.js'
 
@@ -60,32 +61,12 @@ function assets(): Map<string, Uint8Array | string> {
   return files
 }
 
-/** Rendered charts kept on disk by content key, so an unchanged chart is not rendered again. */
-function diskCache(folder: string): ChartCache {
-  return {
-    get(key) {
-      try {
-        return readFileSync(join(folder, `${key}.svg`), 'utf8')
-      } catch {
-        return undefined
-      }
-    },
-    set(key, svg) {
-      try {
-        writeFileAtomic(join(folder, `${key}.svg`), svg)
-      } catch {
-        // A cache that cannot be written only costs time.
-      }
-    },
-  }
-}
-
 /** A built note waiting to be printed and put in place. */
 interface Staged {
   readonly file: VFile
   readonly folder: string
   readonly staged: StagedFolder
-  readonly model: NoteModel
+  readonly model: BuiltSummary
   readonly date: string | null
   readonly stem: string
   /** What the package is built from, for its key (the PDF's presence is known only after printing). */
@@ -162,16 +143,15 @@ async function buildLocked(
   let failed = failedBefore
   let built = 0
   let skipped = 0
-  // The renderer is loaded only by commands that render.
-  const { buildNote } = await import('../build.js')
-  const template = readFileSync(templatePath('package.html'), 'utf8')
   const shared = assets()
-  const cache = diskCache(join(options.out, '.cache', 'charts'))
+  const cacheFolder = join(options.out, '.cache', 'charts')
   const { folders, clashes } = planFolders(found.notes, options.out, found.base)
   const clashOf = new Map(clashes.map((c) => [c.path, c.reason]))
   const staged: Staged[] = []
 
-  // 1. Build every note into a staged folder.
+  // 1. Read every note, and keep those that must be built (changed, or --force).
+  const tool = toolWithBuild(TOOL)
+  const pending: { file: VFile; path: string; folder: string; keyInputs: Staged['keyInputs'] }[] = []
   for (const path of found.notes) {
     const shown = relative(process.cwd(), path) || path
     const read = noteFile(path, shown)
@@ -188,7 +168,6 @@ async function buildLocked(
       failed = true
       continue
     }
-    const tool = toolWithBuild(TOOL)
     const keyInputs = {
       noteText: String(file.value),
       notePath: shown,
@@ -203,39 +182,55 @@ async function buildLocked(
       if (!options.quiet) out(`${shown}: unchanged, ${join(folder, 'index.html')}\n`)
       continue
     }
-    try {
-      const built = await buildNote(file, { tool, notePath: shown, template, commit: COMMIT, gitDate: () => gitDate(path), readData: dataReader(path), chartCache: cache })
-      if (!built.ok || built.html === null) {
-        failed = true
-        if (!options.quiet) out(`${shown}: not built (errors below); the previous package in ${folder} is unchanged\n`)
-        continue
-      }
-      // Checked before printing, and again when the package is put in place.
-      const foreign = foreignContent(folder)
-      if (foreign !== null) {
-        fail(file, 'package-folder', messages['package-folder'](`${foreign}, so the package is not written there; move those files or build into another --out`))
-        failed = true
-        continue
-      }
-      const content = new Map(shared)
-      content.set('index.html', built.html)
-      content.set('results.json', `${JSON.stringify(built.results, null, 2)}\n`)
-      for (const [name, text] of built.files) content.set(name, text)
-      let stagedFolder: StagedFolder
-      try {
-        stagedFolder = stageFolder(folder, content)
-      } catch (error) {
-        fail(file, 'package-write', messages['package-write'](folder, codeOf(error)))
-        failed = true
-        continue
-      }
-      staged.push({ file, folder, staged: stagedFolder, model: built.model, date: built.date, stem: basename(path, extname(path)), keyInputs })
-    } catch (error) {
+    pending.push({ file, path, folder, keyInputs })
+  }
+
+  // 2. Evaluate and render them, in worker threads up to the core count, and stage each
+  //    beside its package folder as it comes (depends on 1). What is said of each note is
+  //    kept in the notes' order, so the output does not depend on which thread was first.
+  const progress = progressLine(pending.length, options.quiet)
+  const said: string[] = new Array(pending.length).fill('')
+  const stagedAt: (Staged | null)[] = new Array(pending.length).fill(null)
+  const stage = (i: number, reply: BuildReply): void => {
+    const { file, path, folder, keyInputs } = pending[i]!
+    progress(String(file.path))
+    restoreMessages(file, reply.messages)
+    if (reply.error !== null) {
       // A bug, not a bad note: say so with the note's name and go on with the others.
-      fail(file, 'internal-error', messages['internal-error'](error instanceof Error ? error.message : String(error)))
+      fail(file, 'internal-error', messages['internal-error'](reply.error))
+      failed = true
+      return
+    }
+    if (!reply.ok || reply.html === null || reply.summary === null) {
+      failed = true
+      said[i] = `${file.path}: not built (errors below); the previous package in ${folder} is unchanged\n`
+      return
+    }
+    // Checked before printing, and again when the package is put in place.
+    const foreign = foreignContent(folder)
+    if (foreign !== null) {
+      fail(file, 'package-folder', messages['package-folder'](`${foreign}, so the package is not written there; move those files or build into another --out`))
+      failed = true
+      return
+    }
+    const content = new Map(shared)
+    content.set('index.html', reply.html)
+    content.set('results.json', `${JSON.stringify(reply.results, null, 2)}\n`)
+    for (const [name, text] of reply.files) content.set(name, text)
+    try {
+      stagedAt[i] = { file, folder, staged: stageFolder(folder, content), model: reply.summary, date: reply.date, stem: basename(path, extname(path)), keyInputs }
+    } catch (error) {
+      fail(file, 'package-write', messages['package-write'](folder, codeOf(error)))
       failed = true
     }
   }
+  await buildAll(
+    pending.map((p) => ({ path: p.path, shown: String(p.file.path), text: String(p.file.value), cacheFolder })),
+    stage,
+  )
+  progress(null)
+  if (!options.quiet) out(said.join(''))
+  for (const item of stagedAt) if (item) staged.push(item)
 
   // 2. Print the staged packages with one browser (depends on 1).
   let noBrowser = false

@@ -1,6 +1,6 @@
 /**
  * `npm run bench`: every benchmark in one process, with ratios measured in the
- * same run. `npm run bench -- core` (dynamics, tolerance, package, figures, pdf, fuzz, repository) runs one (repository only when named: it takes minutes);
+ * same run. `npm run bench -- core` (dynamics, tolerance, package, figures, pdf, fuzz, preview, repository) runs one (repository only when named: it takes minutes);
  * `-- --json` prints one JSON object instead of Markdown tables.
  */
 import { runCoreBench } from './core.js'
@@ -12,6 +12,7 @@ import { runFiguresBench } from './figures.js'
 import { runPdfBench } from './pdf.js'
 import { runFuzzBench } from './fuzz.js'
 import { runRepositoryBench } from './repository.js'
+import { runPreviewBench } from './preview.js'
 
 const args = process.argv.slice(2)
 const asJson = args.includes('--json')
@@ -26,4 +27,5 @@ if (wanted('pdf')) await runPdfBench()
 if (wanted('fuzz')) await runFuzzBench()
 // Minutes of builds: only when asked for by name.
 if (only.includes('repository')) await runRepositoryBench()
+if (wanted('preview')) await runPreviewBench()
 process.stdout.write(asJson ? json() : markdown())

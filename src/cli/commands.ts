@@ -44,6 +44,16 @@ export const commands: readonly CommandSpec[] = [
     options: [{ name: 'quiet', type: 'boolean', description: 'print errors and failed checks only' }, help],
   },
   {
+    name: 'serve',
+    usage: 'linkwright serve [paths…] [--out out] [--port 8710]',
+    summary: 'Live preview: build (HTML only), serve the packages on 127.0.0.1, rebuild and reload on each saved change.',
+    options: [
+      { name: 'out', type: 'string', value: 'folder', description: 'where the packages go', default: 'out' },
+      { name: 'port', type: 'string', value: 'number', description: 'port on 127.0.0.1 (0: any free one)', default: '8710' },
+      help,
+    ],
+  },
+  {
     name: 'init',
     usage: 'linkwright init [folder]',
     summary: 'Start a design repository: a notes folder with a starter note that builds, and a .gitignore for out/.',

@@ -62,6 +62,15 @@ async function main(argv: readonly string[]): Promise<number> {
     const { checkCommand } = await import('./check-command.js')
     return checkCommand({ paths, quiet: values.quiet === true }, out, err)
   }
+  if (name === 'serve') {
+    const port = Number(values.port ?? 8710)
+    if (!Number.isInteger(port) || port < 0 || port > 65535) {
+      err(`linkwright serve: --port must be a port number, got ${String(values.port)}\n`)
+      return 2
+    }
+    const { serveCommand } = await import('./serve-command.js')
+    return serveCommand({ paths, out: typeof values.out === 'string' ? values.out : 'out', port }, out, err)
+  }
   const paper = typeof values.paper === 'string' ? values.paper : null
   if (paper !== null && !/^(a4|letter)$/i.test(paper)) {
     err(`linkwright build: --paper must be A4 or Letter, got ${paper}\n`)

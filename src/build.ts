@@ -11,7 +11,7 @@ import { resultsDocument } from './notes/results-json.js'
 import type { ChartCache } from './render/chart-svg.js'
 import { renderCharts } from './render/charts.js'
 import { tableCsv, tableCsvPath } from './render/csv.js'
-import { renderPackage } from './render/package.js'
+import { renderPackage, type ChangesSince } from './render/package.js'
 
 /** Options for {@link buildNote}. */
 export interface BuildNoteOptions {
@@ -27,6 +27,8 @@ export interface BuildNoteOptions {
   readonly readData?: DataReader | null
   /** Where rendered charts are kept between builds. */
   readonly chartCache?: ChartCache | null
+  /** What moved since a revision, shown in the package with change marks. */
+  readonly changes?: ChangesSince | null
 }
 
 /** A built note: the model, and the HTML, results and chart specs unless the note has errors. */
@@ -52,7 +54,7 @@ export async function buildNote(file: VFile, options: BuildNoteOptions): Promise
   // 2. Charts: specs from the core's sweeps, SVG from vega (depends on 1).
   const { charts, files, cached } = await renderCharts(model, options.chartCache)
   // 3. The package (depends on 1 and 2).
-  const html = renderPackage(tree, model, file, { template: options.template, notePath: options.notePath, date, commit: options.commit, charts })
+  const html = renderPackage(tree, model, file, { template: options.template, notePath: options.notePath, date, commit: options.commit, charts, changes: options.changes ?? null })
   // Each table block also as CSV, for the spreadsheet a reviewer checks it in.
   for (const o of model.outcomes) if (o?.table) files.set(tableCsvPath(o.block.id, o.block.index), tableCsv(o.table))
   const sorted = new Map([...files].sort(([a], [b]) => a.localeCompare(b)))

@@ -44,6 +44,8 @@ export interface BuildOptions {
   readonly quiet: boolean
   /** Rebuild every package, changed or not. */
   readonly force?: boolean
+  /** Show in each package what moved since this git revision (rebuilds every package). */
+  readonly since?: string | null
 }
 
 /** Exit codes of the build command. */
@@ -177,7 +179,7 @@ async function buildLocked(
       paper: options.paper,
       gitDate: usesGitDate(String(file.value)) ? gitDate(path) : null,
     }
-    if (!options.force && unchanged(folder, { ...keyInputs, pdf: options.pdf }, dataReader(path))) {
+    if (!options.force && !options.since && unchanged(folder, { ...keyInputs, pdf: options.pdf }, dataReader(path))) {
       skipped++
       if (!options.quiet) out(`${shown}: unchanged, ${join(folder, 'index.html')}\n`)
       continue
@@ -225,7 +227,7 @@ async function buildLocked(
     }
   }
   await buildAll(
-    pending.map((p) => ({ path: p.path, shown: String(p.file.path), text: String(p.file.value), cacheFolder })),
+    pending.map((p) => ({ path: p.path, shown: String(p.file.path), text: String(p.file.value), cacheFolder, since: options.since ?? null })),
     stage,
   )
   progress(null)

@@ -10,6 +10,8 @@ import { VFile } from 'vfile'
 import type { CheckOutcome, DataFile } from '../notes/block-kinds/kind.js'
 import type { NoteMeta } from '../notes/types.js'
 import type { ChartCache } from '../render/chart-svg.js'
+import { messages, SOURCE } from '../notes/messages.js'
+import type { ChangesSince } from '../render/package.js'
 import { COMMIT, TOOL } from '../version.js'
 import { dataReader } from './data-files.js'
 import { writeFileAtomic } from './files.js'
@@ -25,6 +27,8 @@ export interface BuildJob {
   readonly text: string
   /** Where rendered charts are cached. */
   readonly cacheFolder: string
+  /** A git revision to show the changes since, or null. */
+  readonly since: string | null
 }
 
 /** A message as plain data. */
@@ -95,7 +99,19 @@ export async function buildOne(job: BuildJob): Promise<BuildReply> {
   try {
     const { buildNote } = await import('../build.js')
     template ??= readFileSync(templatePath('package.html'), 'utf8')
+    let changes: ChangesSince | null = null
+    if (job.since !== null) {
+      const { resultsAt } = await import('./compare-command.js')
+      const { diffResults } = await import('./results-diff.js')
+      const [then, now] = [resultsAt(job.path, job.since), resultsAt(job.path, undefined)]
+      if (typeof then === 'string' || typeof now === 'string') {
+        file.message(messages['revision-compare'](job.since, typeof then === 'string' ? then : String(now)), { place: { line: 1, column: 1 }, ruleId: 'revision-compare', source: SOURCE }).fatal = false
+      } else {
+        changes = { revision: then.label, rows: diffResults(then.doc, now.doc).changes.filter((c) => c.what !== 'tool') }
+      }
+    }
     const built = await buildNote(file, {
+      changes,
       tool: toolWithBuild(TOOL),
       notePath: job.shown,
       template,

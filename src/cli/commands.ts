@@ -32,6 +32,7 @@ export const commands: readonly CommandSpec[] = [
       { name: 'no-pdf', type: 'boolean', description: 'write HTML and results.json only; do not start a browser' },
       { name: 'paper', type: 'string', value: 'A4|Letter', description: 'paper size of the PDF, overriding the front matter' },
       { name: 'browser', type: 'string', value: 'path', description: 'Chromium to print with (else $LINKWRIGHT_CHROMIUM, then the usual install paths)' },
+      { name: 'since', type: 'string', value: 'revision', description: 'add to each package what moved since this git revision, marked in its blocks' },
       { name: 'force', type: 'boolean', description: 'rebuild every package, even those whose note, data, options and tool are unchanged' },
       { name: 'quiet', type: 'boolean', description: 'print errors only' },
       help,

@@ -32,6 +32,42 @@ function readerAt(top: string, revision: string, noteInTree: string): DataReader
   }
 }
 
+/**
+ * The results document of a note at a revision (or, with `revision` undefined,
+ * in the working tree), evaluated with that revision's data files; or why not.
+ */
+export function resultsAt(notePath: string, revision: string | undefined, err: (text: string) => void = () => undefined): { doc: ResultsDoc; label: string } | string {
+  const top = existsSync(dirname(resolve(notePath))) ? workTree(resolve(notePath)) : null
+  if (top === null) return `${notePath} is not in a git work tree`
+  const noteInTree = relative(top, resolve(notePath)).split(sep).join('/')
+  const shown = relative(process.cwd(), notePath) || notePath
+  let text: string
+  let readData: DataReader
+  let label: string
+  if (revision === undefined) {
+    if (!existsSync(notePath)) return `${notePath} is not in the working tree`
+    text = readFileSync(notePath, 'utf8')
+    readData = dataReader(notePath)
+    label = 'working tree'
+  } else {
+    const commit = commitOf(top, revision)
+    if (commit === null) return `\`${revision}\` is not a revision of this repository`
+    const bytes = fileAt(top, commit, noteInTree)
+    if (bytes === null) return `${noteInTree} is not in ${revision}`
+    text = bytes.toString('utf8')
+    readData = readerAt(top, commit, noteInTree)
+    label = `${revision} (${commit})`
+  }
+  const file = new VFile({ path: `${shown} at ${label}`, value: text })
+  // Both sides are evaluated by this tool: the comparison is of the note, not of two builds.
+  const { model } = readNote(file, TOOL, { gitDate: () => null, readData })
+  if (file.messages.some((m) => m.fatal === true)) {
+    err(report([file]))
+    return `the note at ${label} has errors, so it cannot be compared`
+  }
+  return { doc: resultsDocument(model, file, shown, model.date) as ResultsDoc, label }
+}
+
 /** Run the compare command; returns the exit code. */
 export function compareCommand(args: readonly string[], json: boolean, out: (text: string) => void, err: (text: string) => void): number {
   if (args.length < 2 || args.length > 3) {
@@ -39,40 +75,8 @@ export function compareCommand(args: readonly string[], json: boolean, out: (tex
     return 2
   }
   const [notePath, from, to] = args as [string, string, string | undefined]
-  const top = existsSync(notePath) || existsSync(dirname(resolve(notePath))) ? workTree(resolve(notePath)) : null
-  if (top === null) {
-    err(`linkwright compare: ${notePath} is not in a git work tree\n`)
-    return 2
-  }
-  const noteInTree = relative(top, resolve(notePath)).split(sep).join('/')
   const shown = relative(process.cwd(), notePath) || notePath
-  const side = (revision: string | undefined): { doc: ResultsDoc; label: string } | string => {
-    let text: string
-    let readData: DataReader
-    let label: string
-    if (revision === undefined) {
-      if (!existsSync(notePath)) return `${notePath} is not in the working tree`
-      text = readFileSync(notePath, 'utf8')
-      readData = dataReader(notePath)
-      label = 'working tree'
-    } else {
-      const commit = commitOf(top, revision)
-      if (commit === null) return `\`${revision}\` is not a revision of this repository`
-      const bytes = fileAt(top, commit, noteInTree)
-      if (bytes === null) return `${noteInTree} is not in ${revision}`
-      text = bytes.toString('utf8')
-      readData = readerAt(top, commit, noteInTree)
-      label = `${revision} (${commit})`
-    }
-    const file = new VFile({ path: `${shown} at ${label}`, value: text })
-    // Both sides are evaluated by this tool: the comparison is of the note, not of two builds.
-    const { model } = readNote(file, TOOL, { gitDate: () => null, readData })
-    if (file.messages.some((m) => m.fatal === true)) {
-      err(report([file]))
-      return `the note at ${label} has errors, so it cannot be compared`
-    }
-    return { doc: resultsDocument(model, file, shown, model.date) as ResultsDoc, label }
-  }
+  const side = (revision: string | undefined) => resultsAt(notePath, revision, err)
   const a = side(from)
   if (typeof a === 'string') {
     err(`linkwright compare: ${a}\n`)

@@ -86,6 +86,7 @@ async function main(argv: readonly string[]): Promise<number> {
       browser: typeof values.browser === 'string' ? values.browser : null,
       quiet: values.quiet === true,
       force: values.force === true,
+      since: typeof values.since === 'string' ? values.since : null,
     },
     out,
     err,

@@ -70,6 +70,7 @@ export const messages = {
   'pdf-kept': (folder: string) =>
     `Not replaced: the previous package in ${folder} has a PDF and none could be printed now, so it is kept as it was; install a browser, or build with --no-pdf to replace it with HTML only`,
   'internal-error': (detail: string) => `Cannot build this note: internal error: ${detail}`,
+  'revision-compare': (revision: string, detail: string) => `Cannot show the changes since \`${revision}\`: ${detail}; the package is built without them`,
 } as const
 
 /** A rule id of the catalogue. */

@@ -21,6 +21,8 @@ export interface RenderContext {
   readonly assumptionNumbers: ReadonlyMap<string, string>
   /** Rendered chart SVG by block index, and where its spec was written. */
   readonly charts: ReadonlyMap<number, { readonly svg: string; readonly specFile: string }>
+  /** `block.name` of the inputs and results that changed since the revision compared with (change marks). */
+  readonly changed: ReadonlySet<string>
 }
 
 /** Render one block's outcome; a block with errors shows its source and a note. */
@@ -33,11 +35,11 @@ export function renderBlock(block: CalcBlock, outcome: BlockOutcome | null, cont
     ])
   }
   const parts: (Element | null)[] = [heading]
-  if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, 'Inputs'))
+  if (outcome.inputs.length > 0) parts.push(inputsTable(outcome.inputs, context, 'Inputs', block.id))
   for (const data of outcome.data) parts.push(dataTable(data, context))
   if (outcome.method.length > 0) parts.push(methodList(outcome, context))
   const listed = outcome.results.filter((r) => r.listed !== false)
-  if (listed.length > 0) parts.push(resultsTable(listed, context))
+  if (listed.length > 0) parts.push(resultsTable(listed, context, block.id))
   if (outcome.extremes.length > 0) parts.push(extremesTable(outcome, context))
   if (outcome.warnings.length > 0) {
     parts.push(
@@ -79,7 +81,16 @@ function symbolCell(symbol: string | null): ElementContent[] {
   return symbol ? [texNode(symbol, false) as unknown as ElementContent] : []
 }
 
-function inputsTable(inputs: readonly InputValue[], context: RenderContext, caption: string): Element {
+/** The change mark of a row whose value changed since the revision compared with. */
+function changeMark(context: RenderContext, id: string | null, name: string): ElementContent[] {
+  return id !== null && context.changed.has(`${id}.${name}`) ? [h('span.lw-change-mark', { title: 'changed since the revision compared with' }, 'Δ '), text('')] : []
+}
+
+function changedRow(context: RenderContext, id: string | null, names: readonly string[]): (i: number) => string | null {
+  return (i) => (id !== null && context.changed.has(`${id}.${names[i]}`) ? 'lw-changed' : null)
+}
+
+function inputsTable(inputs: readonly InputValue[], context: RenderContext, caption: string, id: string | null): Element {
   const { meta } = context.model
   return table(
     'lw-inputs',
@@ -113,8 +124,9 @@ function inputsTable(inputs: readonly InputValue[], context: RenderContext, capt
         }
       }
       if (input.note) value.push(h('br'), h('span.lw-converted', input.note))
-      return [symbolCell(input.symbol), input.label, value, unit, source]
+      return [symbolCell(input.symbol), [...changeMark(context, id, input.name), text(input.label)], value, unit, source]
     }),
+    changedRow(context, id, inputs.map((i) => i.name)),
   )
 }
 
@@ -147,7 +159,7 @@ function blocksUsed(expression: string, context: RenderContext): CalcBlock[] {
   return context.model.blocks.filter((b) => b.id !== null && new RegExp(`(^|[^A-Za-z0-9_.])${b.id}\\.`).test(expression))
 }
 
-function resultsTable(results: readonly NamedValue[], context: RenderContext): Element {
+function resultsTable(results: readonly NamedValue[], context: RenderContext, id: string | null): Element {
   const { meta } = context.model
   return table(
     'lw-results',
@@ -156,8 +168,9 @@ function resultsTable(results: readonly NamedValue[], context: RenderContext): E
     results.map((r) => {
       const shown = displayValue(r.value, meta.units, meta.digits)
       const value = r.value.type === 'none' ? h('span.lw-none', { title: r.value.reason }, `— ${r.value.reason}`) : h('span.lw-number', shown.number)
-      return [symbolCell(r.symbol), r.label, value, shown.label, h('code', r.name)]
+      return [symbolCell(r.symbol), [...changeMark(context, id, r.name), text(r.label)], value, shown.label, h('code', r.name)]
     }),
+    changedRow(context, id, results.map((r) => r.name)),
   )
 }
 

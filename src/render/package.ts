@@ -27,7 +27,7 @@ import type { BlockNode, NoteModel } from '../notes/note.js'
 import type { CiteNode, ValueNode } from '../notes/prose.js'
 import { renderBlock, type RenderContext } from './block.js'
 import { citation } from './markup.js'
-import { assumptions, conclusions, cover, footer, references, revisionHistory, scope, signOff, software, statusWords, summary } from './sections.js'
+import { assumptions, changesSince, conclusions, cover, footer, references, revisionHistory, scope, signOff, software, statusWords, summary } from './sections.js'
 import { contents, numberSections } from './contents.js'
 
 /** Options for {@link renderPackage}. */
@@ -42,6 +42,24 @@ export interface RenderOptions {
   readonly commit: string
   /** Rendered chart SVG by block index, and the file its spec was written to. */
   readonly charts?: ReadonlyMap<number, { readonly svg: string; readonly specFile: string }>
+  /** What moved since a revision, for a "Changes since" section and change marks; null for none. */
+  readonly changes?: ChangesSince | null
+}
+
+/** One difference from the revision compared with, as shown. */
+export interface ChangeRow {
+  readonly what: 'note' | 'data' | 'tool' | 'block' | 'input' | 'result' | 'check'
+  readonly name: string
+  readonly from: string | null
+  readonly to: string | null
+  readonly relative?: number
+}
+
+/** The changes since a revision. */
+export interface ChangesSince {
+  /** The revision as the user named it, with its commit. */
+  readonly revision: string
+  readonly rows: readonly ChangeRow[]
 }
 
 // User HTML may keep GitHub-like markup and math classes, plus our placeholders; nothing else.
@@ -70,6 +88,7 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
     references: new Map(model.references.map((r) => [r.key, r])),
     assumptionNumbers: new Map(model.assumptions.map((a, i) => [a.text, `A${i + 1}`])),
     charts: options.charts ?? new Map(),
+    changed: new Set((options.changes?.rows ?? []).filter((r) => r.what === 'input' || r.what === 'result').map((r) => r.name)),
   }
   // 2. Markdown → hast, our nodes as slots (depends on 1 for citations).
   const slots: ElementContent[][] = []
@@ -111,7 +130,7 @@ export function renderPackage(tree: Root, model: NoteModel, file: VFile, options
   const sections: Record<string, ElementContent[]> = {
     cover: [cover(model, options.date)],
     scope: [scope(model)],
-    revisions: [revisionHistory(model)],
+    revisions: options.changes ? [revisionHistory(model), changesSince(options.changes)] : [revisionHistory(model)],
     summary: [summary(model, context)],
     body: body.children as ElementContent[],
     conclusions: [conclusions(model, context)],

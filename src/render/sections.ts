@@ -5,6 +5,7 @@
  */
 import type { Element, ElementContent } from 'hast'
 import { h } from 'hastscript'
+import type { ChangeRow, ChangesSince } from './package.js'
 import { CAUTION } from '../notes/caution.js'
 import { extremesValues } from '../notes/block-kinds/extremes.js'
 import type { Topic } from '../notes/block-kinds/kind.js'
@@ -120,6 +121,32 @@ export function revisionHistory(model: NoteModel): Element {
     revisions.length === 0
       ? h('p', `Revision ${revision}: no history given in the front matter.`)
       : table('lw-revisions', null, ['Revision', 'Date', 'Description'], revisions.map((r) => [r.revision, h('span.lw-date', r.date), r.description])),
+  ])
+}
+
+/** What moved since the revision compared with: one row each, the changed rows of the blocks marked Δ. */
+export function changesSince(changes: ChangesSince): Element {
+  const words: Record<ChangeRow['what'], string> = { note: 'note', data: 'data file', tool: 'program', block: 'block', input: 'input', result: 'result', check: 'check' }
+  const rows = changes.rows.filter((r) => r.what !== 'note' && r.what !== 'tool')
+  return h('section.lw-section.lw-changes', { id: 'changes' }, [
+    h('h2', `Changes since revision ${changes.revision}`),
+    h('p', rows.length === 0
+      ? 'Nothing the package states moved since that revision (the note’s text may differ in words).'
+      : `${rows.length} change${rows.length === 1 ? '' : 's'} to review; the inputs and results that changed are marked Δ in their blocks.`),
+    rows.length === 0
+      ? null
+      : table(
+          'lw-changes-table',
+          null,
+          ['What', 'Name', 'Was', 'Is', 'Change'],
+          rows.map((r) => [
+            words[r.what],
+            h('code', r.what === 'block' ? `#${r.name}` : r.name),
+            r.from ?? (r.what === 'block' ? '' : 'new'),
+            r.to ?? (r.what === 'block' ? 'removed' : 'gone'),
+            r.relative !== undefined ? `${r.relative >= 0 ? '+' : '−'}${Math.abs(r.relative * 100).toPrecision(3)} %` : r.what === 'block' && r.from === null ? `added (${r.to})` : '',
+          ]),
+        ),
   ])
 }
 

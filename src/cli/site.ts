@@ -11,7 +11,7 @@ import { MANIFEST, writeFileAtomic } from './files.js'
 
 interface SavedResults {
   document?: { title?: string; number?: string; revision?: string; status?: string }
-  summary?: { passed?: number; failed?: number; notEvaluated?: number; informative?: { checks?: number } }
+  summary?: { passed?: number; failed?: number; notEvaluated?: number; informative?: { checks?: number; failed?: number } }
   checks?: { label?: string; status?: string; informative?: boolean }[]
 }
 
@@ -48,6 +48,7 @@ export function siteEntries(outDir: string): SiteEntry[] {
             failed: results.summary?.failed ?? 0,
             notEvaluated: results.summary?.notEvaluated ?? 0,
             informative: results.summary?.informative?.checks ?? 0,
+            informativeFailed: results.summary?.informative?.failed ?? 0,
           },
           failing: gate.filter((c) => c.status !== 'PASS').map((c) => `${c.label ?? '?'} (${c.status === 'FAIL' ? 'FAIL' : 'not evaluated'})`),
           pdf: files.find((f) => !f.includes('/') && f.endsWith('.pdf')) ?? null,

@@ -17,7 +17,7 @@ export interface SiteEntry {
   readonly revision: string
   /** draft, for review, approved */
   readonly status: string
-  readonly checks: { readonly passed: number; readonly failed: number; readonly notEvaluated: number; readonly informative: number }
+  readonly checks: { readonly passed: number; readonly failed: number; readonly notEvaluated: number; readonly informative: number; readonly informativeFailed: number }
   /** Labels of the gate checks that FAIL or cannot be evaluated. */
   readonly failing: readonly string[]
   /** The PDF's file name in the folder, or null. */
@@ -67,7 +67,7 @@ function checksWords(e: SiteEntry): string {
   const parts = [`${e.checks.passed} of ${total} pass`]
   if (e.checks.failed > 0) parts.push(`${e.checks.failed} FAIL`)
   if (e.checks.notEvaluated > 0) parts.push(`${e.checks.notEvaluated} not evaluated`)
-  if (e.checks.informative > 0) parts.push(`${e.checks.informative} informative`)
+  if (e.checks.informative > 0) parts.push(`${e.checks.informative} informative${e.checks.informativeFailed > 0 ? ` (${e.checks.informativeFailed} FAIL, not part of the gate)` : ''}`)
   return parts.join(', ')
 }
 

@@ -28,8 +28,9 @@ const EVENTS = '/__linkwright/events'
 
 const esc = (text: string) => text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;')
 
-// The preview's own script: reload when the server says a build finished.
-const RELOAD = `<script>new EventSource('${EVENTS}').onmessage = () => location.reload()</script>`
+// The preview's own script: the page knows the build it shows; the server says the latest one when the
+// page connects and after each build, so a build that finished while the page was loading is not missed.
+const reload = (version: number) => `<script>new EventSource('${EVENTS}').onmessage = (e) => { if (Number(e.data) !== ${version}) location.reload() }</script>`
 
 /** Options of the serve command. */
 export interface ServeOptions {
@@ -82,7 +83,7 @@ export async function serveCommand(options: ServeOptions, out: (text: string) =>
     const url = new URL(request.url ?? '/', 'http://127.0.0.1')
     if (url.pathname === EVENTS) {
       response.writeHead(200, { 'content-type': 'text/event-stream', 'cache-control': 'no-store', connection: 'keep-alive' })
-      response.write(': linkwright preview\n\n')
+      response.write(`: linkwright preview\n\ndata: ${version}\n\n`)
       clients.add(response)
       request.on('close', () => clients.delete(response))
       return
@@ -111,7 +112,7 @@ export async function serveCommand(options: ServeOptions, out: (text: string) =>
       const banner = report
         ? `<div id="lw-preview-problems" style="position:sticky;top:0;z-index:9;background:#fbe8e8;color:#a11d21;border-bottom:2px solid #a11d21;padding:8px 12px;font:12px/1.4 monospace;white-space:pre-wrap">${esc(report)}</div>`
         : ''
-      body = body.toString('utf8').replace(/<body([^>]*)>/, `<body$1>${banner}`).replace('</body>', `${RELOAD}</body>`)
+      body = body.toString('utf8').replace(/<body([^>]*)>/, `<body$1>${banner}`).replace('</body>', `${reload(version)}</body>`)
     }
     response.writeHead(200, { 'content-type': type, 'cache-control': 'no-store' }).end(body)
   })

@@ -217,6 +217,15 @@ function sliderCrankWarnings(
       details: { rod, needed, from: limits[0], to: limits[1] },
     })
   }
+  // Rod equal to the crank, no offset (the isosceles slider-crank): a change point at 90° and 270°.
+  const scale = GEOMETRY_TOLERANCE * 1e3 * (crank + rod)
+  if (linkage.equivalentFourBar === null && Math.abs(rod - crank) <= scale && Math.abs(offset) <= scale) {
+    warnings.push({
+      code: 'change-point-linkage',
+      message: `Connecting rod equal to the crank (${mm(rod)}) with no offset: at 90° and 270° the rod folds onto the crank and the slider reaches the crank centre, where it can stay or go on (a change point). In the assembly followed it rests there for half a turn, so the inner dead centre is a dwell and the time ratio describes that assembly only; guide the linkage through the change points, or make the rod longer than the crank`,
+      details: { crank, rod },
+    })
+  }
   if (linkage.driver === 'slider' && deadPoints.length > 0) {
     const angles = deadPoints.map((p) => deg(p.theta)).join(' and ')
     warnings.push({

@@ -102,3 +102,15 @@ describe('four-bar at toggles and change points', () => {
     )
   })
 })
+
+describe('the isosceles slider-crank (rod equal to the crank, no offset)', () => {
+  it('should warn of its change points, and not for a rod a little longer', () => {
+    // With b = a and e = 0, x = a cos θ + a |cos θ|: the slider rests at the crank centre from 90° to 270°
+    // (the closed form written out here), and the rod folds onto the crank at both ends of that dwell.
+    const equal = analyseSliderCrank(sliderCrank({ crank: 0.1, rod: 0.1 }), { speed: 1 })
+    expect(equal.warnings.map((w) => w.code)).toContain('change-point-linkage')
+    expect(equal.stroke).toBeCloseTo(0.2, 12)
+    const longer = analyseSliderCrank(sliderCrank({ crank: 0.1, rod: 0.101 }), { speed: 1 })
+    expect(longer.warnings.map((w) => w.code)).not.toContain('change-point-linkage')
+  })
+})

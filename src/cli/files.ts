@@ -47,10 +47,8 @@ export function findNotes(paths: readonly string[], skip: readonly string[] = []
   const skipped = new Set<string>(skip.flatMap((s) => (existsSync(s) ? [realpathSync(s)] : [])))
   let folders = 0
   const addNote = (full: string): void => {
-    let real: string
-    try {
-      real = realpathSync(full)
-    } catch {
+    const real = realOrNull(full)
+    if (real === null) {
       problems.push({ path: full, reason: 'it is a link to a file that does not exist' })
       return
     }
@@ -63,10 +61,8 @@ export function findNotes(paths: readonly string[], skip: readonly string[] = []
     notes.add(full)
   }
   const walk = (dir: string): void => {
-    let real: string
-    try {
-      real = realpathSync(dir)
-    } catch {
+    const real = realOrNull(dir)
+    if (real === null) {
       problems.push({ path: dir, reason: 'it is a link to a folder that does not exist' })
       return
     }
@@ -120,12 +116,17 @@ export function findNotes(paths: readonly string[], skip: readonly string[] = []
   return { notes: [...notes].sort(), missing, problems, base: commonFolder(anchors) }
 }
 
-function realOrSelf(path: string): string {
+/** The real path (links resolved), or null when it leads nowhere. */
+function realOrNull(path: string): string | null {
   try {
     return realpathSync(path)
   } catch {
-    return path
+    return null
   }
+}
+
+function realOrSelf(path: string): string {
+  return realOrNull(path) ?? path
 }
 
 function statOrNull(path: string) {
